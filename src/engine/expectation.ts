@@ -1,0 +1,93 @@
+import { findBreakpoints } from './breakpoints.ts';
+import { splitPoints, type Domain } from './domain.ts';
+import type { VariationalProblem } from './problem.ts';
+import { integrateVector, type IntegrationResult } from './quadrature.ts';
+import { probeTrial, type TrialProbe } from './trial-probe.ts';
+
+/** <H> of the trial at one parameter point, with the pieces it is made of and their error. */
+export interface Expectation {
+  energy: number;
+  kinetic: number;
+  potential: number;
+  norm: number;
+  /** Error estimate of the energy propagated from the quadrature's estimates. */
+  errorEstimate: number;
+  /** Which integral failed, if one did: the point cannot be used. */
+  failure: 'non-finite' | 'not-normalisable' | 'kinetic-diverges' | 'potential-diverges' | null;
+  failureDetail: string | null;
+  probe: TrialProbe;
+  /** Quadrature split points used (domain ends, kinks of potential and trial, the trial's centre). */
+  splits: number[];
+  evaluations: number;
+}
+
+export const EXPECTATION_DEFAULTS = { relTol: 1e-12, maxIntervals: 2000 };
+
+/**
+ * N = <psi|psi>, <T> = (hbar^2/2m) <psi'|psi'> (radial: plus l(l+1)/(2 m r^2) and weight r^2) and <V>,
+ * in one vector quadrature; the |psi'|^2 form needs no second derivative and is exact for
+ * trials that vanish at the walls.
+ */
+export function expectation(problem: VariationalProblem, domain: Domain, potentialBreaks: number[], parameters: ArrayLike<number>): Expectation {
+  const { trial, potential, mass } = problem;
+  trial.setParameters(parameters);
+  const probe = probeTrial(trial.value, domain);
+  const trialBreaks = findBreakpoints(trial.switches, domain.lo, domain.hi, probe.center, probe.scale);
+  const centre = Number.isFinite(domain.lo) ? [] : [probe.center];
+  const splits = splitPoints(domain, [...potentialBreaks, ...trialBreaks.points, ...centre]);
+  const l2 = problem.angularMomentum * (problem.angularMomentum + 1);
+  const integrand = domain.radial
+    ? (r: number, out: Float64Array) => {
+        const R = trial.value(r);
+        const dR = trial.d1(r);
+        const w = r * r;
+        out[0] = w * R * R;
+        out[1] = w * dR * dR + l2 * R * R;
+        out[2] = R === 0 ? 0 : w * potential(r) * R * R;
+      }
+    : (x: number, out: Float64Array) => {
+        const psi = trial.value(x);
+        const dpsi = trial.d1(x);
+        out[0] = psi * psi;
+        out[1] = dpsi * dpsi;
+        // Far out a trial underflows to 0 where V may overflow (a Morse wall): the product is 0, not NaN.
+        out[2] = psi === 0 ? 0 : potential(x) * psi * psi;
+      };
+  const result = integrateVector(integrand, 3, { breakpoints: splits, scale: probe.scale, ...EXPECTATION_DEFAULTS });
+  const evaluations = probe.evaluations + trialBreaks.evaluations + result.evaluations;
+  const [n, tk, v] = result.values;
+  const norm = n;
+  const kinetic = tk / (2 * mass) / norm;
+  const potentialEnergy = v / norm;
+  const energy = kinetic + potentialEnergy;
+  const [en, et, ev] = result.errorEstimates;
+  const errorEstimate = (et / (2 * mass) + ev + Math.abs(energy) * en) / Math.abs(norm);
+  const failure = classifyFailure(result, probe);
+  return {
+    energy: failure ? Infinity : energy,
+    kinetic,
+    potential: potentialEnergy,
+    norm,
+    errorEstimate,
+    failure: failure?.kind ?? null,
+    failureDetail: failure?.detail ?? null,
+    probe,
+    splits,
+    evaluations,
+  };
+}
+
+function classifyFailure(result: IntegrationResult, probe: TrialProbe): { kind: NonNullable<Expectation['failure']>; detail: string } | null {
+  if (probe.nonFiniteAt !== null) return { kind: 'non-finite', detail: `the trial is not a finite number at ${probe.nonFiniteAt}` };
+  if (result.status === 'non-finite') return { kind: 'non-finite', detail: result.message ?? 'an integrand is not a finite number' };
+  if (result.converged && result.values[0] > 0) return null;
+  // Attribute the failure to the first integral whose own error estimate is out of bounds.
+  const names = ['not-normalisable', 'kinetic-diverges', 'potential-diverges'] as const;
+  const words = ['the norm integral of |psi|^2', 'the kinetic integral of |psi\'|^2', 'the potential integral of V |psi|^2'];
+  for (let k = 0; k < 3; k++) {
+    const bad = !Number.isFinite(result.values[k]) || result.errorEstimates[k] > 1e-6 * Math.abs(result.absValues[k]);
+    if (bad) return { kind: names[k], detail: `${words[k]} does not converge (estimate ${result.values[k].toPrecision(6)} +/- ${result.errorEstimates[k].toPrecision(2)})` };
+  }
+  if (!(result.values[0] > 0)) return { kind: 'not-normalisable', detail: 'the trial is zero everywhere' };
+  return null;
+}

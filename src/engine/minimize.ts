@@ -1,0 +1,454 @@
+// Bounded minimisation of a variational energy over a few trial-function parameters.
+// The energy comes from quadrature good to ~1e-12 relative, so the search stops where f can no
+// longer tell points apart, and a Newton polish then uses finite differences with steps large
+// enough that quadrature noise does not swamp them.
+
+export interface ParameterRange {
+  start: number;
+  min: number;
+  max: number;
+}
+
+export interface MinimizeOptions {
+  xTol?: number;
+  fTol?: number;
+  maxEvaluations?: number;
+}
+
+export interface MinimizeResult {
+  x: Float64Array;
+  value: number;
+  evaluations: number;
+  iterations: number;
+  polishSteps: number;          // accepted Newton steps
+  converged: boolean;            // the search met its tolerances and the curvature is available
+  method: 'brent' | 'nelder-mead';
+  activeLimits: Array<'min' | 'max' | null>;
+  hessian: number[][];
+  gradient: number[];
+  rejectedEvaluations: number;  // calls that returned NaN, -Infinity or +Infinity, all treated as +Infinity
+  message: string | null;
+}
+
+export const DEFAULTS = {
+  // Absolute part of the parameter tolerance, as a fraction of each parameter's range.
+  xTol: 1e-10,
+  // Relative resolution of f. Near a minimum f - f* ~ (dx)^2, so parameters are sought to
+  // sqrt(fTol) relative: finer than that the search would be steering by noise.
+  fTol: 1e-12,
+  // Cap on the search (Brent or Nelder–Mead with restarts). Its last iteration may overshoot by
+  // n + 1; the bound snap, the curvature and the polish add at most 1 + 2n^2 + polishIterations (2n^2 + 1).
+  maxEvaluations: 10000,
+  // Finite-difference step relative to the parameter's scale: about fTol^(1/4), which balances
+  // truncation error against noise in a second difference.
+  differenceStep: 1e-3,
+  // A parameter's scale is |x|, but never below this fraction of its range, so a parameter
+  // near zero still gets a usable step.
+  scaleFloor: 1e-2,
+  // Initial Nelder–Mead simplex edge, relative to each parameter's scale.
+  simplexStep: 0.1,
+  // Restarts from the best vertex catch a simplex that has collapsed without reaching a minimum.
+  restarts: 3,
+  polishIterations: 4,
+  // A parameter this close to a bound (fraction of its range) is tried exactly at the bound.
+  snapFraction: 1e-4,
+  // A parameter this close to a bound (fraction of its range) counts as on it.
+  activeFraction: 1e-12,
+} as const;
+
+// Standard Nelder–Mead coefficients: reflection, expansion, contraction, shrink.
+const REFLECT = 1;
+const EXPAND = 2;
+const CONTRACT = 0.5;
+const SHRINK = 0.5;
+const GOLDEN = (3 - Math.sqrt(5)) / 2;
+
+interface Settings {
+  xTol: number;
+  fTol: number;
+  maxEvaluations: number;
+}
+
+// Counts calls and maps anything that is not a finite number to +Infinity ("cannot evaluate").
+class Objective {
+  evaluations = 0;
+  rejected = 0;
+  constructor(private readonly f: (x: Float64Array) => number, private readonly limit: number) {}
+  get exhausted(): boolean {
+    return this.evaluations >= this.limit;
+  }
+  at(x: ArrayLike<number>): number {
+    this.evaluations++;
+    const value = this.f(Float64Array.from(x));
+    if (Number.isFinite(value)) return value;
+    this.rejected++;
+    return Infinity;
+  }
+}
+
+interface SearchOutcome {
+  x: Float64Array;
+  value: number;
+  iterations: number;
+  converged: boolean;
+  message: string | null;
+}
+
+function scaleOf(value: number, range: ParameterRange): number {
+  const width = range.max - range.min;
+  return Math.min(width, Math.max(Math.abs(value), DEFAULTS.scaleFloor * width));
+}
+
+/** Brent's localmin: golden section with parabolic interpolation (Brent, Algorithms for Minimization without Derivatives, 1973, ch. 5), started at range.start. */
+function brent(objective: Objective, range: ParameterRange, settings: Settings): SearchOutcome {
+  // Brent requires the relative tolerance to be at least sqrt(machine epsilon).
+  const relative = Math.max(Math.sqrt(settings.fTol), Math.sqrt(Number.EPSILON));
+  const absolute = settings.xTol * (range.max - range.min);
+  let a = range.min;
+  let b = range.max;
+  let x = range.start;
+  let w = x;
+  let v = x;
+  let fx = objective.at([x]);
+  let fw = fx;
+  let fv = fx;
+  let d = 0;
+  let e = 0;
+  let iterations = 0;
+  for (;;) {
+    const middle = 0.5 * (a + b);
+    const tol = relative * Math.abs(x) + absolute / 3;
+    const tol2 = 2 * tol;
+    if (Math.abs(x - middle) <= tol2 - 0.5 * (b - a)) {
+      return { x: Float64Array.of(x), value: fx, iterations, converged: true, message: null };
+    }
+    if (objective.exhausted) {
+      return {
+        x: Float64Array.of(x), value: fx, iterations, converged: false,
+        message: `evaluation limit ${objective.evaluations} reached with the bracket [${a}, ${b}] still wider than the tolerance`,
+      };
+    }
+    iterations++;
+    let p = 0;
+    let q = 0;
+    let r = 0;
+    if (Math.abs(e) > tol) {
+      r = (x - w) * (fx - fv);
+      q = (x - v) * (fx - fw);
+      p = (x - v) * q - (x - w) * r;
+      q = 2 * (q - r);
+      if (q > 0) p = -p;
+      else q = -q;
+      r = e;
+      e = d;
+    }
+    // Infinite values make p and q NaN; every comparison then fails and a golden step is taken.
+    if (Math.abs(p) < Math.abs(0.5 * q * r) && p > q * (a - x) && p < q * (b - x)) {
+      d = p / q;
+      const u = x + d;
+      if (u - a < tol2 || b - u < tol2) d = x < middle ? tol : -tol;
+    } else {
+      e = (x < middle ? b : a) - x;
+      d = GOLDEN * e;
+    }
+    const u = x + (Math.abs(d) >= tol ? d : d > 0 ? tol : -tol);
+    const fu = objective.at([u]);
+    if (fu <= fx) {
+      if (u < x) b = x;
+      else a = x;
+      v = w; fv = fw;
+      w = x; fw = fx;
+      x = u; fx = fu;
+    } else {
+      if (u < x) a = u;
+      else b = u;
+      if (fu <= fw || w === x) {
+        v = w; fv = fw;
+        w = u; fw = fu;
+      } else if (fu <= fv || v === x || v === w) {
+        v = u; fv = fu;
+      }
+    }
+  }
+}
+
+function clampInto(point: Float64Array, ranges: ParameterRange[]): Float64Array {
+  for (let i = 0; i < point.length; i++) point[i] = Math.min(ranges[i].max, Math.max(ranges[i].min, point[i]));
+  return point;
+}
+
+/** Nelder–Mead simplex search (Nelder & Mead, Comput. J. 7, 308, 1965) in the ordering of Lagarias, Reeds, Wright & Wright, SIAM J. Optim. 9, 112 (1998), with trial points clamped into the box. */
+function nelderMeadRun(
+  objective: Objective,
+  ranges: ParameterRange[],
+  settings: Settings,
+  start: Float64Array,
+  startValue: number,
+): SearchOutcome {
+  const n = ranges.length;
+  const vertices: Float64Array[] = [start];
+  const values: number[] = [startValue];
+  for (let i = 0; i < n; i++) {
+    const vertex = Float64Array.from(start);
+    const step = DEFAULTS.simplexStep * scaleOf(start[i], ranges[i]);
+    // Step away from the nearer bound so that clamping cannot flatten the simplex at the outset.
+    const upward = ranges[i].max - start[i] >= start[i] - ranges[i].min;
+    vertex[i] += upward ? step : -step;
+    clampInto(vertex, ranges);
+    vertices.push(vertex);
+    values.push(objective.at(vertex));
+  }
+  const order = Array.from({ length: n + 1 }, (_, i) => i);
+  const centroid = new Float64Array(n);
+  const along = (from: Float64Array, to: Float64Array, factor: number): Float64Array => {
+    const point = new Float64Array(n);
+    for (let j = 0; j < n; j++) point[j] = from[j] + factor * (to[j] - from[j]);
+    return clampInto(point, ranges);
+  };
+  let iterations = 0;
+  for (;;) {
+    order.sort((i, j) => values[i] - values[j] || i - j);
+    const best = order[0];
+    const worst = order[n];
+    const secondWorst = order[n - 1];
+    const spread = values[worst] - values[best];
+    let diameter = 0;
+    for (const index of order) {
+      for (let j = 0; j < n; j++) {
+        diameter = Math.max(diameter, Math.abs(vertices[index][j] - vertices[best][j]) / (ranges[j].max - ranges[j].min));
+      }
+    }
+    const done = (converged: boolean, message: string | null): SearchOutcome => ({
+      x: Float64Array.from(vertices[best]), value: values[best], iterations, converged, message,
+    });
+    if (Number.isFinite(values[best]) && (spread <= settings.fTol * Math.abs(values[best]) || diameter <= settings.xTol)) {
+      return done(true, null);
+    }
+    if (diameter <= settings.xTol) {
+      return done(false, 'the simplex shrank to a point without finding a finite value of f');
+    }
+    if (objective.exhausted) {
+      return done(false, `evaluation limit ${objective.evaluations} reached with the simplex spread ${spread} in f and ${diameter} of the range in x`);
+    }
+    iterations++;
+    centroid.fill(0);
+    for (let k = 0; k < n; k++) {
+      for (let j = 0; j < n; j++) centroid[j] += vertices[order[k]][j] / n;
+    }
+    const reflected = along(centroid, vertices[worst], -REFLECT);
+    const fReflected = objective.at(reflected);
+    let replacement: Float64Array | null = null;
+    let fReplacement = Infinity;
+    if (fReflected < values[best]) {
+      const expanded = along(centroid, reflected, EXPAND);
+      const fExpanded = objective.at(expanded);
+      [replacement, fReplacement] = fExpanded < fReflected ? [expanded, fExpanded] : [reflected, fReflected];
+    } else if (fReflected < values[secondWorst]) {
+      [replacement, fReplacement] = [reflected, fReflected];
+    } else if (fReflected < values[worst]) {
+      const outside = along(centroid, reflected, CONTRACT);
+      const fOutside = objective.at(outside);
+      if (fOutside <= fReflected) [replacement, fReplacement] = [outside, fOutside];
+    } else {
+      const inside = along(centroid, vertices[worst], CONTRACT);
+      const fInside = objective.at(inside);
+      if (fInside < values[worst]) [replacement, fReplacement] = [inside, fInside];
+    }
+    if (replacement) {
+      vertices[worst] = replacement;
+      values[worst] = fReplacement;
+    } else {
+      for (const index of order.slice(1)) {
+        vertices[index] = along(vertices[best], vertices[index], SHRINK);
+        values[index] = objective.at(vertices[index]);
+      }
+    }
+  }
+}
+
+/** Nelder–Mead restarted from its best vertex until a restart no longer improves f (O'Neill, Appl. Stat. 20, 338 (1971), algorithm AS 47). */
+function nelderMead(objective: Objective, ranges: ParameterRange[], settings: Settings): SearchOutcome {
+  let outcome = nelderMeadRun(objective, ranges, settings, Float64Array.from(ranges, (r) => r.start), objective.at(ranges.map((r) => r.start)));
+  let iterations = outcome.iterations;
+  for (let restart = 0; restart < DEFAULTS.restarts && outcome.converged; restart++) {
+    const next = nelderMeadRun(objective, ranges, settings, outcome.x, outcome.value);
+    iterations += next.iterations;
+    // A run keeps its starting vertex unless it finds better, so the restart never loses ground.
+    const improvement = outcome.value - next.value;
+    outcome = next;
+    if (!(improvement > settings.fTol * Math.abs(next.value))) break;
+  }
+  return { ...outcome, iterations };
+}
+
+interface Derivatives {
+  gradient: number[];
+  hessian: number[][];
+  finite: boolean;
+}
+
+/** Central (one-sided at a bound) finite-difference gradient and Hessian (Nocedal & Wright, Numerical Optimization, 2006, §8.1). */
+function differentiate(objective: Objective, ranges: ParameterRange[], x: Float64Array, fx: number): Derivatives {
+  const n = x.length;
+  // Each coordinate gets first- and second-derivative stencils as (offset, weight) pairs;
+  // one-sided ones keep every evaluation inside the box.
+  const first: Array<Array<[number, number]>> = [];
+  const second: Array<Array<[number, number]>> = [];
+  for (let i = 0; i < n; i++) {
+    const { min, max } = ranges[i];
+    const h = Math.min(DEFAULTS.differenceStep * scaleOf(x[i], ranges[i]), (max - min) / 4);
+    if (x[i] - h >= min && x[i] + h <= max) {
+      first.push([[-h, -0.5 / h], [h, 0.5 / h]]);
+      second.push([[-h, 1 / (h * h)], [0, -2 / (h * h)], [h, 1 / (h * h)]]);
+    } else {
+      const s = x[i] + 2 * h <= max ? h : -h;
+      first.push([[0, -1.5 / s], [s, 2 / s], [2 * s, -0.5 / s]]);
+      second.push([[0, 1 / (h * h)], [s, -2 / (h * h)], [2 * s, 1 / (h * h)]]);
+    }
+  }
+  const cache = new Map<string, number>([['', fx]]);
+  const at = (shifts: Array<[number, number]>): number => {
+    const moved = shifts.filter(([, offset]) => offset !== 0);
+    const key = moved.map(([i, offset]) => `${i}:${offset}`).join(',');
+    const known = cache.get(key);
+    if (known !== undefined) return known;
+    const point = Float64Array.from(x);
+    for (const [i, offset] of moved) point[i] += offset;
+    const value = objective.at(point);
+    cache.set(key, value);
+    return value;
+  };
+  const gradient = first.map((stencil, i) => stencil.reduce((sum, [offset, weight]) => sum + weight * at([[i, offset]]), 0));
+  const hessian = Array.from({ length: n }, () => new Array<number>(n).fill(0));
+  for (let i = 0; i < n; i++) {
+    hessian[i][i] = second[i].reduce((sum, [offset, weight]) => sum + weight * at([[i, offset]]), 0);
+    for (let j = 0; j < i; j++) {
+      let sum = 0;
+      for (const [oi, wi] of first[i]) for (const [oj, wj] of first[j]) sum += wi * wj * at([[i, oi], [j, oj]]);
+      hessian[i][j] = hessian[j][i] = sum;
+    }
+  }
+  const finite = gradient.every(Number.isFinite) && hessian.every((row) => row.every(Number.isFinite));
+  return { gradient, hessian, finite };
+}
+
+function activeLimitsOf(x: Float64Array, ranges: ParameterRange[], gradient: number[]): Array<'min' | 'max' | null> {
+  return ranges.map((range, i) => {
+    const near = DEFAULTS.activeFraction * (range.max - range.min);
+    if (x[i] - range.min <= near && gradient[i] > 0) return 'min';
+    if (range.max - x[i] <= near && gradient[i] < 0) return 'max';
+    return null;
+  });
+}
+
+/** Newton step on the free parameters by Cholesky factorisation (Golub & Van Loan, Matrix Computations, 1996, Alg. 4.2.1); null unless the free Hessian is positive definite. */
+function newtonStep(derivatives: Derivatives, free: number[]): number[] | null {
+  const m = free.length;
+  const lower = Array.from({ length: m }, () => new Array<number>(m).fill(0));
+  for (let i = 0; i < m; i++) {
+    for (let j = 0; j <= i; j++) {
+      let sum = derivatives.hessian[free[i]][free[j]];
+      for (let k = 0; k < j; k++) sum -= lower[i][k] * lower[j][k];
+      if (i === j) {
+        if (!(sum > 0)) return null;
+        lower[i][i] = Math.sqrt(sum);
+      } else {
+        lower[i][j] = sum / lower[j][j];
+      }
+    }
+  }
+  const y = new Array<number>(m).fill(0);
+  for (let i = 0; i < m; i++) {
+    let sum = -derivatives.gradient[free[i]];
+    for (let k = 0; k < i; k++) sum -= lower[i][k] * y[k];
+    y[i] = sum / lower[i][i];
+  }
+  const step = new Array<number>(m).fill(0);
+  for (let i = m - 1; i >= 0; i--) {
+    let sum = y[i];
+    for (let k = i + 1; k < m; k++) sum -= lower[k][i] * step[k];
+    step[i] = sum / lower[i][i];
+  }
+  return step;
+}
+
+function validate(ranges: ParameterRange[], options: MinimizeOptions): Settings {
+  if (ranges.length === 0) throw new RangeError('minimizeBounded: at least one parameter is needed');
+  ranges.forEach((range, i) => {
+    if (!Number.isFinite(range.min) || !Number.isFinite(range.max) || !(range.min < range.max)) {
+      throw new RangeError(`minimizeBounded: parameter ${i} needs finite min < max`);
+    }
+    if (!(range.start >= range.min && range.start <= range.max)) {
+      throw new RangeError(`minimizeBounded: parameter ${i} starts at ${range.start}, outside [${range.min}, ${range.max}]`);
+    }
+  });
+  const settings = {
+    xTol: options.xTol ?? DEFAULTS.xTol,
+    fTol: options.fTol ?? DEFAULTS.fTol,
+    maxEvaluations: options.maxEvaluations ?? DEFAULTS.maxEvaluations,
+  };
+  if (!(settings.xTol > 0) || !(settings.fTol > 0) || !(settings.maxEvaluations >= 1)) {
+    throw new RangeError('minimizeBounded: xTol and fTol must be positive and maxEvaluations at least 1');
+  }
+  return settings;
+}
+
+/** Bounded minimisation: Brent's localmin (1973) for n = 1, restarted Nelder–Mead (1965) for n >= 2, then a Newton polish on the free parameters and the finite-difference curvature at the optimum. */
+export function minimizeBounded(
+  f: (x: Float64Array) => number,
+  ranges: ParameterRange[],
+  options: MinimizeOptions = {},
+): MinimizeResult {
+  const settings = validate(ranges, options);
+  const objective = new Objective(f, settings.maxEvaluations);
+  const method = ranges.length === 1 ? 'brent' : 'nelder-mead';
+  const search = method === 'brent' ? brent(objective, ranges[0], settings) : nelderMead(objective, ranges, settings);
+  let x = search.x;
+  let value = search.value;
+  const result = (derivatives: Derivatives, polishSteps: number, message: string | null): MinimizeResult => ({
+    x, value, evaluations: objective.evaluations, iterations: search.iterations, polishSteps,
+    converged: search.converged && message === null, method,
+    activeLimits: activeLimitsOf(x, ranges, derivatives.gradient),
+    hessian: derivatives.hessian, gradient: derivatives.gradient, rejectedEvaluations: objective.rejected,
+    message: search.message ?? message,
+  });
+  if (!Number.isFinite(value)) {
+    const unknown = () => ranges.map(() => NaN);
+    return result({ gradient: unknown(), hessian: ranges.map(unknown), finite: false }, 0,
+      'f was not finite at any point tried');
+  }
+
+  // The search approaches a bound only to within its tolerance; the bound itself is tried directly.
+  const snapped = Float64Array.from(x, (xi, i) => {
+    const { min, max } = ranges[i];
+    const near = DEFAULTS.snapFraction * (max - min);
+    return xi - min <= near ? min : max - xi <= near ? max : xi;
+  });
+  if (snapped.some((xi, i) => xi !== x[i])) {
+    const fSnapped = objective.at(snapped);
+    if (fSnapped < value) [x, value] = [snapped, fSnapped];
+  }
+
+  let derivatives = differentiate(objective, ranges, x, value);
+  let polishSteps = 0;
+  for (let iteration = 0; iteration < DEFAULTS.polishIterations && derivatives.finite; iteration++) {
+    const active = activeLimitsOf(x, ranges, derivatives.gradient);
+    const free = ranges.map((_, i) => i).filter((i) => active[i] === null);
+    const step = free.length > 0 ? newtonStep(derivatives, free) : null;
+    if (!step) break;
+    // Below the resolution of f a "lower" value is noise, so the polish stops there.
+    const predictedDecrease = -0.5 * step.reduce((sum, s, k) => sum + s * derivatives.gradient[free[k]], 0);
+    if (!(predictedDecrease > settings.fTol * Math.abs(value))) break;
+    const trial = Float64Array.from(x);
+    free.forEach((i, k) => { trial[i] += step[k]; });
+    clampInto(trial, ranges);
+    const fTrial = objective.at(trial);
+    if (!(fTrial < value)) break;
+    [x, value] = [trial, fTrial];
+    derivatives = differentiate(objective, ranges, x, value);
+    polishSteps++;
+  }
+  return result(derivatives, polishSteps, derivatives.finite
+    ? null
+    : 'f is not finite within a finite-difference step of the optimum, so the curvature is unavailable');
+}

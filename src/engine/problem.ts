@@ -1,0 +1,38 @@
+/** What the engine evaluates: plain numbers and compiled functions, no text, no units. */
+
+export type EngineSpace = 'line' | 'half-line' | 'radial';
+
+/** A trial family; parameters are set once per point of the search, then the functions are called many times. */
+export interface TrialFamily {
+  setParameters(values: ArrayLike<number>): void;
+  value(x: number): number;
+  d1(x: number): number;
+  d2(x: number): number;
+  /** Functions whose sign changes mark kinks or steps of the trial at the current parameters. */
+  switches: Array<(x: number) => number>;
+}
+
+export interface ParameterSpec {
+  name: string;
+  start: number;
+  min: number;
+  max: number;
+}
+
+export interface ToleratedValue {
+  value: number;
+  tolerance: number;
+}
+
+export interface VariationalProblem {
+  space: EngineSpace;
+  box: [number, number] | null;
+  angularMomentum: number;
+  mass: number;
+  potential: (x: number) => number;
+  potentialSwitches: Array<(x: number) => number>;
+  trial: TrialFamily;
+  parameters: ParameterSpec[];
+  reference: { solve: boolean; published: (ToleratedValue & { source: string }) | null };
+  claim: { energy: ToleratedValue | null; parameters: Record<string, ToleratedValue> } | null;
+}

@@ -1,0 +1,27 @@
+/** The statuses of RECORD-FORMAT.md, in the order in which they win when several apply. */
+export const STATUS_ORDER = ['invalid', 'below-reference', 'unsettled', 'disputed', 'confirmed'] as const;
+export type Status = (typeof STATUS_ORDER)[number];
+
+export interface Check {
+  name: string;
+  pass: boolean;
+  detail: string;
+}
+
+/** A check and the status its failure gives the block. */
+export interface GradedCheck extends Check {
+  failure: Exclude<Status, 'confirmed'>;
+}
+
+export function gradedCheck(name: string, pass: boolean, detail: string, failure: GradedCheck['failure']): GradedCheck {
+  return { name, pass, detail, failure };
+}
+
+/** The first status in STATUS_ORDER that a failing check calls for, and the reasons for it. */
+export function statusOf(checks: readonly GradedCheck[]): { status: Status; message: string | null } {
+  for (const status of STATUS_ORDER) {
+    const failing = checks.filter((c) => !c.pass && c.failure === status);
+    if (failing.length > 0) return { status, message: failing.map((c) => c.detail).join('; ') };
+  }
+  return { status: 'confirmed', message: null };
+}

@@ -1,0 +1,50 @@
+import type { Domain } from './domain.ts';
+
+/** Where a trial's density lives: its peak, a length scale, and whether it is finite everywhere probed. */
+export interface TrialProbe {
+  center: number;
+  scale: number;
+  /** Largest |psi| seen (radial: |R|), the yardstick for the hard-wall condition. */
+  peakAmplitude: number;
+  /** A coordinate where the trial was not a finite number, if any. */
+  nonFiniteAt: number | null;
+  evaluations: number;
+}
+
+/** Probing distances from 2^-12 to 2^14 at four points per factor of two covers any sensible scale. */
+const PROBE_EXPONENTS = Array.from({ length: 105 }, (_, k) => (k - 48) / 4);
+/** The density has fallen to this fraction of its peak where the length scale is read off. */
+const SCALE_DROP = 1e-3;
+
+export function probeTrial(value: (x: number) => number, domain: Domain): TrialProbe {
+  const points = probePoints(domain);
+  const densities = points.map((x) => {
+    const psi = value(x);
+    return { x, psi, density: psi * psi * (domain.radial ? x * x : 1) };
+  });
+  const bad = densities.find((p) => !Number.isFinite(p.psi));
+  let best = densities[0];
+  let peakAmplitude = 0;
+  for (const p of densities) {
+    if (p.density > best.density) best = p;
+    if (Number.isFinite(p.psi)) peakAmplitude = Math.max(peakAmplitude, Math.abs(p.psi));
+  }
+  const center = domain.radial || domain.lo === 0 ? domain.lo : best.x;
+  // The scale is the farthest distance from the centre where the density is still appreciable.
+  let scale = 0;
+  for (const p of densities) {
+    if (p.density >= SCALE_DROP * best.density) scale = Math.max(scale, Math.abs(p.x - center));
+  }
+  if (!(scale > 0)) scale = Number.isFinite(domain.hi - domain.lo) ? (domain.hi - domain.lo) / 2 : 1;
+  return { center, scale, peakAmplitude, nonFiniteAt: bad ? bad.x : null, evaluations: points.length };
+}
+
+function probePoints(domain: Domain): number[] {
+  if (Number.isFinite(domain.lo) && Number.isFinite(domain.hi)) {
+    const n = 256;
+    return Array.from({ length: n - 1 }, (_, i) => domain.lo + ((domain.hi - domain.lo) * (i + 1)) / n);
+  }
+  const distances = PROBE_EXPONENTS.map((k) => 2 ** k);
+  if (domain.lo === 0) return distances;
+  return [...distances.map((d) => -d).reverse(), 0, ...distances];
+}

@@ -1,0 +1,121 @@
+import { parse, type MathNode } from 'mathjs';
+
+/** Functions a record may call (RECORD-FORMAT.md); `sign` is ours alone, it only appears in derivatives. */
+export const RECORD_FUNCTIONS = ['exp', 'log', 'sqrt', 'abs', 'sin', 'cos', 'tan', 'sinh', 'cosh', 'tanh', 'sech', 'erf', 'min', 'max'] as const;
+export const ARITY: Record<string, number> = { min: 2, max: 2 };
+export const ARITHMETIC = new Set(['add', 'subtract', 'multiply', 'divide', 'pow', 'unaryMinus', 'unaryPlus']);
+export const COMPARISON = new Set(['smaller', 'larger', 'smallerEq', 'largerEq', 'equal', 'unequal']);
+export const LOGIC = new Set(['and', 'or', 'not']);
+/** Names every expression may use besides its own declarations. */
+export const BUILT_IN_NAMES = ['pi', 'e', 'mass', 'hbar'] as const;
+/** Long enough for any honest trial function; a larger text is refused before parsing. */
+export const MAX_EXPRESSION_LENGTH = 20_000;
+
+export interface NameScope {
+  /** Names that are free variables of the expression (the coordinate, varied parameters). */
+  variables: readonly string[];
+  /** Names that stand for a number (constants, fixed parameters, built-ins). */
+  constants: Readonly<Record<string, number>>;
+}
+
+export type CheckResult = { ok: true; tree: MathNode } | { ok: false; token: string; message: string };
+
+type Context = 'value' | 'condition';
+
+/**
+ * Parses expression text and accepts it only if every node is on the allow-list; the tree is
+ * then data for our own compiler, never for mathjs's evaluator.
+ */
+export function checkExpression(text: string, scope: NameScope): CheckResult {
+  if (text.length > MAX_EXPRESSION_LENGTH) {
+    return { ok: false, token: text.slice(0, 20) + '...', message: `the expression is ${text.length} characters long; the limit is ${MAX_EXPRESSION_LENGTH}` };
+  }
+  let tree: MathNode;
+  try {
+    tree = parse(text);
+  } catch (error) {
+    const message = error instanceof Error ? error.message : String(error);
+    const at = /char (\d+)/.exec(message);
+    const token = at ? text.slice(Math.max(0, Number(at[1]) - 1), Number(at[1]) + 5) : text;
+    return { ok: false, token, message: `cannot read the expression: ${message}` };
+  }
+  const refusal = refuse(tree, scope, 'value');
+  return refusal ? { ok: false, ...refusal } : { ok: true, tree };
+}
+
+function refuse(node: MathNode, scope: NameScope, context: Context): { token: string; message: string } | null {
+  const any = node as MathNode & Record<string, unknown>;
+  switch (node.type) {
+    case 'ConstantNode': {
+      const value = any.value;
+      if (typeof value !== 'number') return { token: node.toString(), message: `only numbers may appear as literals, not ${node.toString()}` };
+      if (!Number.isFinite(value)) return { token: node.toString(), message: `the number ${node.toString()} is too large` };
+      return context === 'value' ? null : notACondition(node);
+    }
+    case 'SymbolNode': {
+      const name = any.name as string;
+      if (scope.variables.includes(name) || name in scope.constants) return context === 'value' ? null : notACondition(node);
+      const hint = (RECORD_FUNCTIONS as readonly string[]).includes(name) ? ` (${name} is a function: write ${name}(...))` : '';
+      return { token: name, message: `unknown name ${name}: declare it under parameters or constants${hint}` };
+    }
+    case 'ParenthesisNode':
+      return refuse(any.content as MathNode, scope, context);
+    case 'OperatorNode': {
+      const fn = any.fn as string;
+      const args = any.args as MathNode[];
+      if (ARITHMETIC.has(fn)) return context === 'value' ? first(args, scope, 'value') : notACondition(node);
+      if (COMPARISON.has(fn)) return context === 'condition' ? first(args, scope, 'value') : { token: any.op as string, message: `a comparison (${any.op}) may only stand in the condition of c ? a : b` };
+      if (LOGIC.has(fn)) return context === 'condition' ? first(args, scope, 'condition') : { token: any.op as string, message: `${any.op} may only stand in the condition of c ? a : b` };
+      return { token: any.op as string, message: `operator ${any.op} is not allowed; use + - * / ^ and parentheses` };
+    }
+    case 'RelationalNode':
+      return context === 'condition' ? first(any.params as MathNode[], scope, 'value') : { token: node.toString(), message: 'a comparison may only stand in the condition of c ? a : b' };
+    case 'ConditionalNode':
+      if (context !== 'value') return notACondition(node);
+      return (
+        refuse(any.condition as MathNode, scope, 'condition') ??
+        refuse(any.trueExpr as MathNode, scope, 'value') ??
+        refuse(any.falseExpr as MathNode, scope, 'value')
+      );
+    case 'FunctionNode': {
+      const fnNode = any.fn as MathNode & { name?: string };
+      if (fnNode.type !== 'SymbolNode' || !fnNode.name) return { token: node.toString(), message: 'only the allowed functions may be called, by name' };
+      const name = fnNode.name;
+      if (!(RECORD_FUNCTIONS as readonly string[]).includes(name)) {
+        return { token: name, message: `function ${name} is not allowed; allowed: ${RECORD_FUNCTIONS.join(', ')}` };
+      }
+      const args = any.args as MathNode[];
+      const arity = ARITY[name] ?? 1;
+      if (args.length !== arity) return { token: name, message: `${name} takes ${arity} argument${arity > 1 ? 's' : ''}, not ${args.length}` };
+      return context === 'value' ? first(args, scope, 'value') : notACondition(node);
+    }
+    default:
+      return { token: node.toString().slice(0, 40), message: `${describeNode(node.type)} is not allowed in an expression` };
+  }
+}
+
+function first(nodes: MathNode[], scope: NameScope, context: Context) {
+  for (const node of nodes) {
+    const found = refuse(node, scope, context);
+    if (found) return found;
+  }
+  return null;
+}
+
+function notACondition(node: MathNode) {
+  return { token: node.toString(), message: `the condition of c ? a : b must be a comparison such as x < 1, not ${node.toString()}` };
+}
+
+function describeNode(type: string): string {
+  const names: Record<string, string> = {
+    AccessorNode: 'property or index access',
+    ArrayNode: 'a matrix or list',
+    AssignmentNode: 'assignment',
+    BlockNode: 'a sequence of statements',
+    FunctionAssignmentNode: 'a function definition',
+    IndexNode: 'indexing',
+    ObjectNode: 'an object',
+    RangeNode: 'a range',
+  };
+  return names[type] ?? type;
+}

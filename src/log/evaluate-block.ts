@@ -1,0 +1,147 @@
+import { performance } from 'node:perf_hooks';
+import { evaluateProblem, type EngineResult } from '../engine/evaluate-problem.ts';
+import type { VariationalProblem } from '../engine/problem.ts';
+import { compileBlock } from '../expr/compile-block.ts';
+import type { BlockEntry, BlockSpec, SpecProblem } from '../spec/types.ts';
+import { inputHash } from './input-hash.ts';
+import type { BlockResult } from './result-types.ts';
+
+const ENERGY_UNIT = 'hartree';
+
+/** Evaluates one block of a record; whatever goes wrong becomes an `invalid` result, never an exception. */
+export function evaluateBlock(file: string, entry: BlockEntry): BlockResult {
+  const started = performance.now();
+  if (entry.kind === 'invalid') {
+    return invalidBlock(entry.id, entry.line, entry.caption, entry.problems, inputHash(entry.source), started);
+  }
+  const { spec } = entry;
+  const hash = inputHash(spec);
+  const compiled = compileBlock(spec);
+  if (!compiled.ok) {
+    const problems = compiled.problems.map((p) => ({ file, line: p.line, block: spec.id, field: p.field, message: p.message }));
+    return invalidBlock(spec.id, spec.line, spec.caption, problems, hash, started);
+  }
+  const problem: VariationalProblem = {
+    space: spec.space,
+    box: spec.box,
+    angularMomentum: spec.angularMomentum,
+    mass: spec.mass,
+    potential: compiled.block.potential,
+    potentialSwitches: compiled.block.potentialSwitches,
+    trial: compiled.block.trial,
+    parameters: spec.varied,
+    reference: {
+      solve: spec.reference.solve,
+      published: spec.reference.energy ? { ...spec.reference.energy, source: spec.reference.source ?? '' } : null,
+    },
+    claim: spec.claim,
+  };
+  let engine: EngineResult;
+  try {
+    engine = evaluateProblem(problem);
+  } catch (error) {
+    const reason = error instanceof Error ? error.message : String(error);
+    const problems = [{ file, line: spec.line, block: spec.id, field: null, message: `the evaluation failed: ${reason}` }];
+    return invalidBlock(spec.id, spec.line, spec.caption, problems, hash, started);
+  }
+  return toBlockResult(file, spec, engine, hash, started);
+}
+
+function toBlockResult(file: string, spec: BlockSpec, engine: EngineResult, hash: string, started: number): BlockResult {
+  const grid = engine.grid && engine.grid.levels.length > 0 ? engine.grid : null;
+  const published = spec.reference.energy ? { energy: spec.reference.energy.value, tolerance: spec.reference.energy.tolerance, source: spec.reference.source ?? '' } : null;
+  const parameters: BlockResult['parameters'] = {};
+  for (const p of engine.parameters) parameters[p.name] = { value: p.value, unit: null, varied: true };
+  for (const [name, value] of Object.entries(spec.fixed)) parameters[name] = { value, unit: null, varied: false };
+  const relative = (reference: number | null) => (engine.energy === null || reference === null ? null : (engine.energy - reference) / Math.abs(reference));
+  // Invalid results carry the failing check's location: the trial field of the block.
+  const problems: SpecProblem[] =
+    engine.status === 'invalid' ? engine.checks.filter((c) => !c.pass).map((c) => ({ file, line: spec.trial.line, block: spec.id, field: 'trial', message: c.detail })) : [];
+  return {
+    id: spec.id,
+    line: spec.line,
+    caption: spec.caption,
+    status: engine.status,
+    message: engine.message,
+    problems,
+    energy: engine.energy === null ? null : { value: engine.energy, unit: ENERGY_UNIT },
+    parameters,
+    variance: engine.variance?.value ?? null,
+    varianceNote: engine.variance?.note ?? null,
+    states: engine.energy === null ? [] : [{ energy: engine.energy }],
+    components: engine.components,
+    reference:
+      grid || published
+        ? {
+            energy: grid ? grid.levels[0] : published!.energy,
+            excited: grid && grid.levels.length > 1 ? grid.levels[1] : null,
+            threshold: grid && Number.isFinite(grid.threshold) ? grid.threshold : null,
+            method: grid ? 'grid' : 'published',
+            published,
+          }
+        : null,
+    errors: { vsGrid: relative(grid ? grid.levels[0] : null), vsPublished: relative(published?.energy ?? null) },
+    bounds: { upper: engine.bounds.upper, lower: engine.bounds.lower, weinstein: engine.bounds.weinstein },
+    overlap: engine.overlap,
+    virial: engine.virial,
+    claim: spec.claim
+      ? { energy: spec.claim.energy?.value ?? null, tolerance: spec.claim.energy?.tolerance ?? null, parameters: spec.claim.parameters }
+      : null,
+    checks: engine.checks.map(({ name, pass, detail }) => ({ name, pass, detail })),
+    diagnostics: {
+      energyError: engine.energyError,
+      optimiser: engine.optimiser
+        ? {
+            method: engine.optimiser.method,
+            iterations: engine.optimiser.iterations,
+            evaluations: engine.optimiser.evaluations,
+            converged: engine.optimiser.converged,
+            activeLimits: engine.optimiser.activeLimits,
+            curvature: engine.optimiser.hessian,
+          }
+        : null,
+      grid: engine.grid
+        ? {
+            size: engine.grid.size,
+            elements: engine.grid.elements,
+            elementOrder: engine.grid.elementOrder,
+            refinements: engine.grid.refinements,
+            domain: engine.grid.domain,
+            errorEstimate: engine.grid.errorEstimate,
+            converged: engine.grid.converged,
+          }
+        : null,
+      energyEvaluations: engine.counts.energyEvaluations,
+      trialEvaluations: engine.counts.trialEvaluations,
+    },
+    inputHash: hash,
+    timeMs: performance.now() - started,
+  };
+}
+
+function invalidBlock(id: string, line: number, caption: string | null, problems: SpecProblem[], hash: string, started: number): BlockResult {
+  return {
+    id,
+    line,
+    caption,
+    status: 'invalid',
+    message: problems.map((p) => `${p.field ? p.field + ': ' : ''}${p.message}`).join('; '),
+    problems,
+    energy: null,
+    parameters: {},
+    variance: null,
+    varianceNote: null,
+    states: [],
+    components: null,
+    reference: null,
+    errors: { vsGrid: null, vsPublished: null },
+    bounds: { upper: null, lower: null, weinstein: null },
+    overlap: null,
+    virial: null,
+    claim: null,
+    checks: [],
+    diagnostics: null,
+    inputHash: hash,
+    timeMs: performance.now() - started,
+  };
+}

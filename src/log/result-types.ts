@@ -1,0 +1,60 @@
+import type { Check, Status } from '../engine/status.ts';
+import type { FrontMatter, SpecProblem } from '../spec/types.ts';
+
+/** The machine-readable result of RECORD-FORMAT.md: what `groundwork check --json` prints and the pages render. */
+
+export interface Valued {
+  value: number;
+  unit: string | null;
+}
+
+export interface BlockResult {
+  id: string;
+  line: number;
+  caption: string | null;
+  status: Status;
+  message: string | null;
+  /** Every problem that made the block invalid, each with its file, line, block and field. */
+  problems: SpecProblem[];
+  energy: Valued | null;
+  parameters: Record<string, Valued & { varied: boolean }>;
+  variance: number | null;
+  varianceNote: string | null;
+  states: Array<{ energy: number }>;
+  components: { kinetic: number; potential: number; norm: number } | null;
+  reference: {
+    energy: number | null;
+    excited: number | null;
+    threshold: number | null;
+    method: 'grid' | 'published' | null;
+    published: { energy: number; tolerance: number; source: string } | null;
+  } | null;
+  errors: { vsGrid: number | null; vsPublished: number | null };
+  bounds: { upper: number | null; lower: number | null; weinstein: [number, number] | null };
+  overlap: number | null;
+  virial: { exponent: number; ratio: number } | null;
+  claim: { energy: number | null; tolerance: number | null; parameters: Record<string, { value: number; tolerance: number }> } | null;
+  checks: Check[];
+  diagnostics: {
+    energyError: number | null;
+    optimiser: { method: string; iterations: number; evaluations: number; converged: boolean; activeLimits: Array<'min' | 'max' | null>; curvature: number[][] } | null;
+    grid: { size: number; elements: number; elementOrder: number; refinements: number; domain: [number, number]; errorEstimate: number[]; converged: boolean } | null;
+    energyEvaluations: number;
+    trialEvaluations: number;
+  } | null;
+  inputHash: string;
+  timeMs: number;
+}
+
+export interface RecordResult {
+  file: string;
+  title: string | null;
+  frontMatter: FrontMatter;
+  problems: SpecProblem[];
+  blocks: BlockResult[];
+}
+
+export interface LogResult {
+  tool: { name: 'groundwork'; version: string };
+  records: RecordResult[];
+}
