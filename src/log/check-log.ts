@@ -33,7 +33,15 @@ export function collectRecordFiles(paths: string[]): { files: string[]; missing:
 /** Parses and evaluates one record file; a block that fails never stops the others. */
 export function checkRecord(file: string, cwd = process.cwd()): RecordResult {
   const name = relative(cwd, file) || file;
-  const record = parseRecord(name, readFileSync(file, 'utf8'));
+  let text: string;
+  try {
+    text = readFileSync(file, 'utf8');
+  } catch (error) {
+    const reason = error instanceof Error ? error.message : String(error);
+    const frontMatter = { title: null, author: null, date: null, tags: [] };
+    return { file: name, title: null, frontMatter, problems: [{ file: name, line: 1, block: null, field: null, message: `cannot read the record: ${reason}` }], blocks: [] };
+  }
+  const record = parseRecord(name, text);
   return {
     file: name,
     title: record.frontMatter.title,
