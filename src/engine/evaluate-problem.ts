@@ -27,6 +27,8 @@ export interface EngineResult {
   optimiser: MinimizeResult | null;
   checks: GradedCheck[];
   counts: { energyEvaluations: number; trialEvaluations: number };
+  /** Wall-clock split between the variational part and the grid reference. */
+  timings: { variationalMs: number; referenceMs: number };
   /** Where the trial lives at the optimum, for plots and the grid's hint. */
   trialCenter: number | null;
   trialScale: number | null;
@@ -45,6 +47,7 @@ const COMPARISON_FLOOR = 1e-11;
  * then measures the optimum against an independent grid solution, bounds and the author's claim.
  */
 export function evaluateProblem(problem: VariationalProblem): EngineResult {
+  const started = performance.now();
   const domain = domainOf(problem.space, problem.box);
   const start = problem.parameters.map((p) => p.start);
   const counts = { energyEvaluations: 0, trialEvaluations: 0 };
@@ -56,7 +59,7 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
   const potentialBreaks = findBreakpoints(problem.potentialSwitches, domain.lo, domain.hi, startProbe.center, startProbe.scale).points;
   const atStart = evaluate(problem, domain, potentialBreaks, start, counts);
   const startChecks = trialChecks(problem, domain, atStart, 'the start values');
-  if (startChecks.some((c) => !c.pass)) return invalidResult(startChecks, counts);
+  if (startChecks.some((c) => !c.pass)) return invalidResult(startChecks, counts, started);
 
   let optimiser: MinimizeResult | null = null;
   let best = start;
@@ -66,7 +69,7 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
   }
   const optimum = evaluate(problem, domain, potentialBreaks, best, counts);
   const optimumChecks = trialChecks(problem, domain, optimum, 'the optimum');
-  if (optimumChecks.some((c) => !c.pass)) return invalidResult(optimumChecks, counts);
+  if (optimumChecks.some((c) => !c.pass)) return invalidResult(optimumChecks, counts, started);
 
   const checks: GradedCheck[] = [...optimumChecks];
   const energy = optimum.energy;
@@ -84,6 +87,7 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
   problem.trial.setParameters(best);
   const variance = energyVariance(problem, domain, optimum.splits, optimum.probe.scale, optimum.probe.peakAmplitude, energy, optimum.norm);
 
+  const gridStarted = performance.now();
   let grid: GridLevels | null = null;
   let gridError: string | null = null;
   if (problem.reference.solve) {
@@ -101,6 +105,7 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
       gridError = error instanceof Error ? error.message : String(error);
     }
   }
+  const referenceMs = performance.now() - gridStarted;
   const tolerance = 10 * optimum.errorEstimate + COMPARISON_FLOOR * Math.max(1, Math.abs(energy));
   checks.push(...referenceChecks(problem, energy, tolerance, grid, gridError));
 
@@ -127,6 +132,7 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
     optimiser,
     checks,
     counts: { ...counts, trialEvaluations: counts.trialEvaluations + variance.evaluations },
+    timings: { variationalMs: performance.now() - started - referenceMs, referenceMs },
     trialCenter: optimum.probe.center,
     trialScale: optimum.probe.scale,
     splits: optimum.splits,
@@ -312,7 +318,7 @@ function groundOverlap(problem: VariationalProblem, domain: Domain, grid: GridLe
   return (sum * sum) / norm;
 }
 
-function invalidResult(checks: GradedCheck[], counts: EngineResult['counts']): EngineResult {
+function invalidResult(checks: GradedCheck[], counts: EngineResult['counts'], started: number): EngineResult {
   const { message } = statusOf(checks);
   return {
     status: 'invalid',
@@ -330,6 +336,7 @@ function invalidResult(checks: GradedCheck[], counts: EngineResult['counts']): E
     optimiser: null,
     checks,
     counts,
+    timings: { variationalMs: performance.now() - started, referenceMs: 0 },
     trialCenter: null,
     trialScale: null,
     splits: [],

@@ -113,6 +113,8 @@ function toBlockResult(file: string, spec: BlockSpec, engine: EngineResult, hash
         : null,
       energyEvaluations: engine.counts.energyEvaluations,
       trialEvaluations: engine.counts.trialEvaluations,
+      variationalMs: engine.timings.variationalMs,
+      referenceMs: engine.timings.referenceMs,
     },
     inputHash: hash,
     timeMs: performance.now() - started,

@@ -41,6 +41,8 @@ export interface BlockResult {
     grid: { size: number; elements: number; elementOrder: number; refinements: number; domain: [number, number]; errorEstimate: number[]; converged: boolean } | null;
     energyEvaluations: number;
     trialEvaluations: number;
+    variationalMs: number;
+    referenceMs: number;
   } | null;
   inputHash: string;
   timeMs: number;

@@ -151,6 +151,10 @@ describe('parseRecord: blocks that are refused', () => {
     expect(hit!.file).toBe(FILE);
   });
 
+  // Found while writing these tests: the problem for an unknown field carries field null and the
+  // line of the opening fence, not the line of the misspelt key (see the report).
+  it.todo('an unknown field is located on the line of the misspelt key, with field naming it');
+
   it('a missing potential is reported on field potential', () => {
     const p = problems(one('id: m1\ntrial: exp(-x^2)\n'));
     expect(p.map((q) => q.field)).toContain('potential');
@@ -278,7 +282,7 @@ describe('parseRecord: the tolerance a written number implies', () => {
   });
 
   it('a published reference energy gets a whole unit in the last digit: 1.0603620904 -> 1e-10 (tables are often truncated; common practice)', () => {
-    const s = spec(one(minimal('reference:\n  energy: 1.0603620904\n  source: "Hioe & Montroll (from memory)"\n')));
+    const s = spec(one(minimal('reference:\n  energy: 1.0603620904\n  source: "quartic oscillator ground level, from memory"\n')));
     expect(s.reference.energy?.value).toBe(1.0603620904);
     expect(s.reference.energy!.tolerance).toBeGreaterThan(0.99e-10);
     expect(s.reference.energy!.tolerance).toBeLessThan(1.01e-10);
