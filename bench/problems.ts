@@ -1,0 +1,35 @@
+import { readFileSync } from 'node:fs';
+import os from 'node:os';
+import { collectRecordFiles } from '../src/log/check-log.ts';
+import { evaluateBlock } from '../src/log/evaluate-block.ts';
+import { parseRecord } from '../src/spec/parse-record.ts';
+
+/** Evaluates every benchmark record repeatedly and prints one comparable JSON document (progress on stderr). */
+const WARM_UP = 2;
+const RUNS = 7;
+const median = (values: number[]) => [...values].sort((a, b) => a - b)[Math.floor(values.length / 2)];
+
+const folder = process.argv[2] ?? new URL('../../shared/problems', import.meta.url).pathname;
+const problems: Record<string, unknown> = {};
+for (const file of collectRecordFiles([folder]).files) {
+  const record = parseRecord(file, readFileSync(file, 'utf8'));
+  for (const entry of record.blocks) {
+    const runs = Array.from({ length: WARM_UP + RUNS }, () => evaluateBlock(file, entry)).slice(WARM_UP);
+    const last = runs[runs.length - 1];
+    const published = last.reference?.published?.energy ?? null;
+    const key = last.id;
+    problems[key] = {
+      status: last.status,
+      variationalMs: median(runs.map((r) => r.diagnostics?.variationalMs ?? NaN)),
+      referenceMs: median(runs.map((r) => r.diagnostics?.referenceMs ?? NaN)),
+      energyEvaluations: last.diagnostics?.energyEvaluations ?? null,
+      evaluations: last.diagnostics?.trialEvaluations ?? null,
+      gridSize: last.diagnostics?.grid?.size ?? null,
+      energy: last.energy?.value ?? null,
+      relError: published !== null && last.energy ? (last.energy.value - published) / Math.abs(published) : null,
+      referenceRelError: published !== null && last.reference?.method === 'grid' ? (last.reference.energy! - published) / Math.abs(published) : null,
+    };
+    process.stderr.write(`${key}: ${last.status}\n`);
+  }
+}
+process.stdout.write(JSON.stringify({ node: process.version, cores: os.availableParallelism(), problems }, null, 2) + '\n');
