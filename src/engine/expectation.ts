@@ -78,7 +78,7 @@ export function expectation(problem: VariationalProblem, domain: Domain, potenti
 }
 
 function classifyFailure(result: IntegrationResult, probe: TrialProbe): { kind: NonNullable<Expectation['failure']>; detail: string } | null {
-  if (probe.nonFiniteAt !== null) return { kind: 'non-finite', detail: `the trial is not a finite number at ${probe.nonFiniteAt}` };
+  if (probe.nonFiniteAt !== null) return { kind: 'non-finite', detail: `the trial is not a finite number at ${probe.nonFiniteAt} (a trial that overflows far out is not square-integrable)` };
   if (result.status === 'non-finite') return { kind: 'non-finite', detail: result.message ?? 'an integrand is not a finite number' };
   if (result.converged && result.values[0] > 0) return null;
   // Attribute the failure to the first integral whose own error estimate is out of bounds.

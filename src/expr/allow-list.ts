@@ -6,8 +6,6 @@ export const ARITY: Record<string, number> = { min: 2, max: 2 };
 export const ARITHMETIC = new Set(['add', 'subtract', 'multiply', 'divide', 'pow', 'unaryMinus', 'unaryPlus']);
 export const COMPARISON = new Set(['smaller', 'larger', 'smallerEq', 'largerEq', 'equal', 'unequal']);
 export const LOGIC = new Set(['and', 'or', 'not']);
-/** Names every expression may use besides its own declarations. */
-export const BUILT_IN_NAMES = ['pi', 'e', 'mass', 'hbar'] as const;
 /** Long enough for any honest trial function; a larger text is refused before parsing. */
 export const MAX_EXPRESSION_LENGTH = 20_000;
 
@@ -49,7 +47,7 @@ function refuse(node: MathNode, scope: NameScope, context: Context): { token: st
     case 'ConstantNode': {
       const value = any.value;
       if (typeof value !== 'number') return { token: node.toString(), message: `only numbers may appear as literals, not ${node.toString()}` };
-      if (!Number.isFinite(value)) return { token: node.toString(), message: `the number ${node.toString()} is too large` };
+      if (!Number.isFinite(value)) return { token: node.toString(), message: Number.isNaN(value) ? 'NaN is not a number a record may use' : `the number ${node.toString()} is too large for a double` };
       return context === 'value' ? null : notACondition(node);
     }
     case 'SymbolNode': {
@@ -90,7 +88,10 @@ function refuse(node: MathNode, scope: NameScope, context: Context): { token: st
       return context === 'value' ? first(args, scope, 'value') : notACondition(node);
     }
     default:
-      return { token: node.toString().slice(0, 40), message: `${describeNode(node.type)} is not allowed in an expression` };
+    {
+      const token = node.toString().slice(0, 40);
+      return { token, message: `${describeNode(node.type)} is not allowed in an expression: ${token}` };
+    }
   }
 }
 

@@ -46,7 +46,7 @@ const HBAR = 1;
 export function compileBlock(spec: BlockSpec): CompileResult {
   const coordinate = spec.space === 'radial' ? 'r' : 'x';
   const varied = spec.varied.map((p) => p.name);
-  const constants: Record<string, number> = { ...spec.constants, ...spec.fixed, mass: spec.mass, hbar: HBAR };
+  const constants: Record<string, number> = { pi: Math.PI, e: Math.E, ...spec.constants, ...spec.fixed, mass: spec.mass, hbar: HBAR };
   const problems: ExpressionProblem[] = [];
 
   const check = (field: 'potential' | 'trial', variables: string[]): MathNode | null => {

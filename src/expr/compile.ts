@@ -35,7 +35,7 @@ export function compileTree(node: MathNode, slotOf: Readonly<Record<string, numb
       const name = (node as SymbolNode).name;
       const slot = slotOf[name];
       if (slot !== undefined) return (s) => s[slot];
-      const value = name === 'pi' ? Math.PI : name === 'e' ? Math.E : constants[name];
+      const value = constants[name];
       if (value === undefined) throw new Error(`name ${name} has no value: the allow-list should have refused it`);
       return () => value;
     }

@@ -7,6 +7,8 @@
 export function erf(x: number): number {
   if (Number.isNaN(x)) return NaN;
   const ax = Math.abs(x);
+  // erfc(6) ~ 2e-17 is below the spacing of doubles near 1.
+  if (ax > 6) return Math.sign(x);
   const value = ax < 3 ? erfSeries(ax) : 1 - erfcContinuedFraction(ax);
   return x < 0 ? -value : value;
 }

@@ -3,7 +3,13 @@ import { z } from 'zod';
 /** The shape of a spec block (RECORD-FORMAT.md), checked before any meaning is given to it. */
 
 const finite = z.number({ invalid_type_error: 'must be a number' }).finite('must be a finite number');
-const expression = z.string({ invalid_type_error: 'must be an expression written as text' }).min(1, 'must not be empty');
+// YAML reads `potential: 0` as a number; a number is an expression too.
+const expression = z
+  .union([z.string(), z.number().finite()], {
+    errorMap: (_issue, ctx) => ({ message: ctx.data === undefined ? 'is required' : 'must be an expression written as text' }),
+  })
+  .transform(String)
+  .pipe(z.string().min(1, 'must not be empty'));
 
 const range = z
   .object({ start: finite, min: finite, max: finite }, { invalid_type_error: 'must be a number (held fixed) or { start, min, max } (varied)' })
@@ -16,6 +22,9 @@ const range = z
 const claimedValue = z.union([finite, z.object({ value: finite, tolerance: finite.positive('must be positive') }).strict()], {
   errorMap: () => ({ message: 'must be a number or { value, tolerance }' }),
 });
+
+/** Names every expression may use besides its own declarations; records may not redeclare them. */
+export const RESERVED_NAMES = ['x', 'r', 'pi', 'e', 'mass', 'hbar'] as const;
 
 export const NAME = /^[A-Za-z][A-Za-z0-9_]*$/;
 const name = z.string().regex(NAME, 'must be a name of letters, digits and _ starting with a letter');

@@ -1,6 +1,6 @@
 import { isScalar, LineCounter, parseDocument, type Document } from 'yaml';
 import type { ZodIssue } from 'zod';
-import { blockSchema, type RawBlock } from './block-schema.ts';
+import { blockSchema, RESERVED_NAMES, type RawBlock } from './block-schema.ts';
 import type { FencedBlock } from './find-blocks.ts';
 import type { BlockEntry, BlockSpec, Claimed, SpecProblem } from './types.ts';
 import { writtenPrecision } from './written-precision.ts';
@@ -24,7 +24,7 @@ export function parseBlock(file: string, fenced: FencedBlock, index: number): Bl
   });
 
   if (doc.errors.length > 0) {
-    return invalid(doc.errors.map((e) => ({ file, line: lineAt(e.pos[0]), block: looseId, field: null, message: `the block is not valid YAML: ${firstLine(e.message)}` })));
+    return invalid(doc.errors.map((e) => ({ file, line: lineAt(e.pos[0]), block: looseId, field: null, message: `the block is not valid YAML: ${firstLine(e.message)} (quote an expression that holds ': ', such as "c ? a : b")` })));
   }
   const data: unknown = doc.toJS();
   if (data === null || typeof data !== 'object' || Array.isArray(data)) {
@@ -32,7 +32,12 @@ export function parseBlock(file: string, fenced: FencedBlock, index: number): Bl
   }
   const parsed = blockSchema.safeParse(data);
   if (!parsed.success) {
-    return invalid(parsed.error.issues.map((issue) => problem(issue.path, describeIssue(issue))));
+    return invalid(
+      parsed.error.issues.flatMap((issue) =>
+        // An unknown key is reported on its own line, under its own name.
+        issue.code === 'unrecognized_keys' ? issue.keys.map((key) => problem([...issue.path, key], `unknown field ${key}`)) : [problem(issue.path, describeIssue(issue))],
+      ),
+    );
   }
   const raw = parsed.data;
   const problems = meaningProblems(raw).map(([path, message]) => problem(path, message));
@@ -60,6 +65,11 @@ function meaningProblems(raw: RawBlock): Array<[(string | number)[], string]> {
     found.push([['report', 'energy-unit'], `energy unit ${raw.report['energy-unit']} is not supported yet in atomic units; results are in hartree`]);
   }
   const parameterNames = Object.keys(raw.parameters ?? {});
+  for (const [group, names] of [['constants', Object.keys(raw.constants ?? {})], ['parameters', parameterNames]] as const) {
+    for (const name of names) {
+      if ((RESERVED_NAMES as readonly string[]).includes(name)) found.push([[group, name], `${name} is a reserved name (coordinate or built-in); choose another`]);
+    }
+  }
   for (const name of Object.keys(raw.constants ?? {})) {
     if (parameterNames.includes(name)) found.push([['constants', name], `${name} is declared both as a constant and as a parameter`]);
   }
@@ -111,7 +121,6 @@ function toSpec(raw: RawBlock, line: number, doc: Document, lineOf: (path: (stri
 }
 
 function describeIssue(issue: ZodIssue): string {
-  if (issue.code === 'unrecognized_keys') return `unknown field${issue.keys.length > 1 ? 's' : ''} ${issue.keys.join(', ')}`;
   if (issue.code === 'invalid_type' && issue.received === 'undefined') return issue.message === 'Required' ? 'is required' : issue.message;
   if (issue.code === 'invalid_union') {
     // The most specific branch is the one that got furthest before failing.

@@ -151,9 +151,13 @@ describe('parseRecord: blocks that are refused', () => {
     expect(hit!.file).toBe(FILE);
   });
 
-  // Found while writing these tests: the problem for an unknown field carries field null and the
-  // line of the opening fence, not the line of the misspelt key (see the report).
-  it.todo('an unknown field is located on the line of the misspelt key, with field naming it');
+  it('an unknown field is located on the line of the misspelt key, with field naming it', () => {
+    const text = record('id: t1\npotental: x^2/2\npotential: x^2/2\ntrial: exp(-x^2)\n');
+    const p = problems(parseRecord(FILE, text).blocks[0]);
+    const hit = p.find((q) => q.field === 'potental');
+    expect(hit).toBeDefined();
+    expect(hit!.line).toBe(text.split('\n').indexOf('potental: x^2/2') + 1);
+  });
 
   it('a missing potential is reported on field potential', () => {
     const p = problems(one('id: m1\ntrial: exp(-x^2)\n'));
