@@ -4,7 +4,7 @@ import type { VariationalProblem } from '../engine/problem.ts';
 import { compileBlock } from '../expr/compile-block.ts';
 import type { BlockEntry, BlockSpec, SpecProblem } from '../spec/types.ts';
 import { inputHash } from './input-hash.ts';
-import type { BlockResult } from './result-types.ts';
+import type { BlockInputs, BlockResult } from './result-types.ts';
 
 const ENERGY_UNIT = 'hartree';
 
@@ -44,10 +44,22 @@ export function evaluateBlock(file: string, entry: BlockEntry): BlockResult {
     const problems = [{ file, line: spec.line, block: spec.id, field: null, message: `the evaluation failed: ${reason}` }];
     return invalidBlock(spec.id, spec.line, spec.caption, problems, hash, started);
   }
-  return toBlockResult(file, spec, engine, hash, started);
+  const trees = compiled.block.trees;
+  const inputs: BlockInputs = {
+    space: spec.space,
+    box: spec.box,
+    angularMomentum: spec.angularMomentum,
+    mass: spec.mass,
+    coordinate: trees.coordinate,
+    potentialTex: trees.potential.toTex(),
+    trialTex: trees.trial.toTex(),
+    constants: spec.constants,
+    ranges: spec.varied.map(({ name, start, min, max }) => ({ name, start, min, max })),
+  };
+  return toBlockResult(file, spec, inputs, engine, hash, started);
 }
 
-function toBlockResult(file: string, spec: BlockSpec, engine: EngineResult, hash: string, started: number): BlockResult {
+function toBlockResult(file: string, spec: BlockSpec, inputs: BlockInputs, engine: EngineResult, hash: string, started: number): BlockResult {
   const grid = engine.grid && engine.grid.levels.length > 0 ? engine.grid : null;
   const published = spec.reference.energy ? { energy: spec.reference.energy.value, tolerance: spec.reference.energy.tolerance, source: spec.reference.source ?? '' } : null;
   const parameters: BlockResult['parameters'] = {};
@@ -61,6 +73,7 @@ function toBlockResult(file: string, spec: BlockSpec, engine: EngineResult, hash
     id: spec.id,
     line: spec.line,
     caption: spec.caption,
+    inputs,
     status: engine.status,
     message: engine.message,
     problems,
@@ -126,6 +139,7 @@ function invalidBlock(id: string, line: number, caption: string | null, problems
     id,
     line,
     caption,
+    inputs: null,
     status: 'invalid',
     message: problems.map((p) => `${p.field ? p.field + ': ' : ''}${p.message}`).join('; '),
     problems,

@@ -8,10 +8,24 @@ export interface Valued {
   unit: string | null;
 }
 
+/** The inputs as the block stated them, typeset from the checked expression trees. */
+export interface BlockInputs {
+  space: string;
+  box: [number, number] | null;
+  angularMomentum: number;
+  mass: number;
+  coordinate: 'x' | 'r';
+  potentialTex: string;
+  trialTex: string;
+  constants: Record<string, number>;
+  ranges: Array<{ name: string; start: number; min: number; max: number }>;
+}
+
 export interface BlockResult {
   id: string;
   line: number;
   caption: string | null;
+  inputs: BlockInputs | null;
   status: Status;
   message: string | null;
   /** Every problem that made the block invalid, each with its file, line, block and field. */

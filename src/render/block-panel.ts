@@ -1,0 +1,94 @@
+import katex from 'katex';
+import type { BlockResult } from '../log/result-types.ts';
+import { escapeHtml, formatNumber } from './html.ts';
+
+const tex = (source: string, display = false) => katex.renderToString(source, { displayMode: display, throwOnError: false, output: 'htmlAndMathml' });
+
+const STATUS_WORDS: Record<BlockResult['status'], string> = {
+  confirmed: 'confirmed',
+  disputed: 'disputed: the claim disagrees',
+  'below-reference': 'below the reference',
+  unsettled: 'unsettled',
+  invalid: 'invalid',
+};
+
+/** The result panel that stands in a record's page where its spec block was written. */
+export function renderBlockPanel(result: BlockResult, file: string): string {
+  const parts = [
+    `<section class="gw-panel gw-${result.status}" id="block-${escapeHtml(result.id)}" data-status="${result.status}">`,
+    `<header><span class="gw-status">${escapeHtml(STATUS_WORDS[result.status])}</span> <code>${escapeHtml(result.id)}</code>${result.caption ? ` <span class="gw-caption">${escapeHtml(result.caption)}</span>` : ''}</header>`,
+  ];
+  if (result.message) parts.push(`<p class="gw-message">${escapeHtml(result.message)}</p>`);
+  if (result.problems.length > 0) {
+    parts.push('<ul class="gw-problems">');
+    for (const p of result.problems) parts.push(`<li><code>${escapeHtml(p.file)}:${p.line}</code> ${p.field ? `<code>${escapeHtml(p.field)}</code>: ` : ''}${escapeHtml(p.message)}</li>`);
+    parts.push('</ul>');
+  }
+  if (result.inputs) parts.push(renderInputs(result));
+  if (result.energy) parts.push(renderResults(result));
+  if (result.checks.length > 0) parts.push(renderChecks(result));
+  parts.push(renderAudit(result, file));
+  parts.push('</section>');
+  return parts.join('\n');
+}
+
+function renderInputs(result: BlockResult): string {
+  const inputs = result.inputs!;
+  const q = inputs.coordinate;
+  const kinetic = inputs.space === 'radial' ? `-\\frac{\\hbar^2}{2m}\\frac{1}{r^2}\\frac{d}{dr}r^2\\frac{d}{dr}${inputs.angularMomentum ? `+\\frac{${inputs.angularMomentum * (inputs.angularMomentum + 1)}\\hbar^2}{2m r^2}` : ''}` : `-\\frac{\\hbar^2}{2m}\\frac{d^2}{d${q}^2}`;
+  const where = inputs.box ? `${q} \\in [${inputs.box[0]}, ${inputs.box[1]}]` : inputs.space === 'line' ? `${q} \\in \\mathbb{R}` : `${q} \\ge 0`;
+  const rows = [
+    `<div>${tex(`H = ${kinetic} + ${inputs.potentialTex}, \\quad ${where}, \\quad m = ${inputs.mass}`, true)}</div>`,
+    `<div>${tex(`${inputs.space === 'radial' ? 'R' : '\\psi'}(${q}) = ${inputs.trialTex}`, true)}</div>`,
+  ];
+  const ranges = inputs.ranges.map((r) => tex(`${r.name} \\in [${r.min}, ${r.max}],\\ \\text{start } ${r.start}`)).join('; ');
+  const constants = Object.entries(inputs.constants).map(([k, v]) => tex(`${k} = ${v}`)).join(', ');
+  if (ranges) rows.push(`<p>Varied: ${ranges}</p>`);
+  if (constants) rows.push(`<p>Constants: ${constants}</p>`);
+  return `<div class="gw-inputs">${rows.join('\n')}</div>`;
+}
+
+function renderResults(result: BlockResult): string {
+  const unit = result.energy!.unit ?? '';
+  const row = (label: string, value: string) => `<tr><th scope="row">${label}</th><td>${value}</td></tr>`;
+  const rows = [
+    ...Object.entries(result.parameters).map(([name, p]) => row(`${tex(name)} ${p.varied ? 'at the optimum' : '(fixed)'}`, formatNumber(p.value))),
+    row(tex('\\langle T\\rangle'), formatNumber(result.components?.kinetic)),
+    row(tex('\\langle V\\rangle'), formatNumber(result.components?.potential)),
+    row(`${tex('E = \\langle H\\rangle')} (upper bound)`, `<strong>${formatNumber(result.energy!.value)}</strong> ${unit}`),
+    row('variance', result.variance === null ? escapeHtml(result.varianceNote ?? '—') : formatNumber(result.variance, 4)),
+    row("Temple's lower bound", formatNumber(result.bounds.lower)),
+    row("Weinstein's interval", result.bounds.weinstein ? `[${formatNumber(result.bounds.weinstein[0])}, ${formatNumber(result.bounds.weinstein[1])}]` : '—'),
+  ];
+  if (result.reference) {
+    rows.push(row(`reference (${result.reference.method})`, `${formatNumber(result.reference.energy)}${result.reference.excited !== null ? `; next level ${formatNumber(result.reference.excited)}` : ''}`));
+    if (result.reference.published) rows.push(row('published', `${formatNumber(result.reference.published.energy)} — ${escapeHtml(result.reference.published.source)}`));
+  }
+  if (result.errors.vsGrid !== null) rows.push(row('relative error against the grid', formatNumber(result.errors.vsGrid, 3)));
+  if (result.errors.vsPublished !== null) rows.push(row('relative error against the published value', formatNumber(result.errors.vsPublished, 3)));
+  if (result.overlap !== null) rows.push(row('overlap with the grid ground state', formatNumber(result.overlap, 8)));
+  if (result.virial) rows.push(row(`virial ratio ${tex(`2\\langle T\\rangle / (${result.virial.exponent}\\langle V\\rangle)`)}`, formatNumber(result.virial.ratio, 8)));
+  if (result.claim?.energy !== null && result.claim) rows.push(row('claimed energy', `${formatNumber(result.claim.energy)} ± ${formatNumber(result.claim.tolerance, 3)}`));
+  return `<table class="gw-results"><caption>Recomputed values (${escapeHtml(unit)}); model estimates, not a substitute for the group's validated procedures</caption><tbody>${rows.join('')}</tbody></table>`;
+}
+
+function renderChecks(result: BlockResult): string {
+  const items = result.checks.map((c) => `<li class="${c.pass ? 'gw-pass' : 'gw-fail'}"><span class="gw-mark">${c.pass ? 'pass' : 'FAIL'}</span> <code>${escapeHtml(c.name)}</code> ${escapeHtml(c.detail)}</li>`);
+  return `<ul class="gw-checks">${items.join('')}</ul>`;
+}
+
+function renderAudit(result: BlockResult, file: string): string {
+  const d = result.diagnostics;
+  const items = [
+    `input hash <code>${escapeHtml(result.inputHash)}</code>`,
+    `record <code>${escapeHtml(file)}</code>, line ${result.line}`,
+    `time ${formatNumber(result.timeMs, 3)} ms`,
+  ];
+  if (d) {
+    items.push(`energy evaluations ${d.energyEvaluations}, trial evaluations ${d.trialEvaluations}`);
+    if (d.optimiser) items.push(`optimiser ${escapeHtml(d.optimiser.method)}: ${d.optimiser.iterations} iterations, ${d.optimiser.evaluations} evaluations, converged ${d.optimiser.converged}`);
+    if (d.grid) items.push(`grid: ${d.grid.size} points, ${d.grid.elements} elements of order ${d.grid.elementOrder}, ${d.grid.refinements} refinements, domain [${formatNumber(d.grid.domain[0], 6)}, ${formatNumber(d.grid.domain[1], 6)}]`);
+    if (d.energyError !== null) items.push(`quadrature error estimate of E ${formatNumber(d.energyError, 3)}`);
+  }
+  return `<details class="gw-audit"><summary>Audit trail</summary><ul>${items.map((i) => `<li>${i}</li>`).join('')}</ul></details>`;
+}
