@@ -1,6 +1,6 @@
 /**
- * Independent grid reference for the variational estimates: the lowest two bound levels and the ground-state vector
- * of H = p^2/(2m) + V (hbar = 1) by the finite-element discrete variable representation.
+ * Independent grid reference for the variational estimates: the lowest bound levels (two unless asked for more) and
+ * their vectors of H = p^2/(2m) + V (hbar = 1) by the finite-element discrete variable representation.
  */
 import { lowestEigenpairs, type SymmetricBand } from './banded-eigen.ts';
 import { gllRule, type GllRule } from './gll.ts';
@@ -15,6 +15,12 @@ export interface GridProblem {
   box?: [number, number];
   breakpoints?: number[];
   hint?: { center: number; width: number };
+  /**
+   * How many of the lowest bound levels to settle (a positive integer, default GRID_DEFAULTS.levels). When this is
+   * given and fewer bound levels exist, the ones that exist are returned and `message` says so; the default asks
+   * for at most two without comment, since a single bound level is ordinary for the callers of the default.
+   */
+  levels?: number;
   relTol?: number;
   maxNodes?: number;
 }
@@ -26,6 +32,8 @@ export interface GridLevels {
   weights: Float64Array;
   ground: Float64Array;
   excited: Float64Array | null;
+  /** Function values at the nodes of every returned level, in the order of `levels` (states[0] is `ground`). */
+  states: Float64Array[];
   domain: [number, number];
   converged: boolean;
   errorEstimate: number[];
@@ -62,10 +70,17 @@ interface Resolution {
   phase: number;
 }
 
-/** What the previous grid says about the wanted states; it steers the mesh and the domain only. */
+/** What the previous grid says about the wanted states; it steers the mesh, the domain and the settling test. */
 interface StateEstimate {
+  /** The highest wanted bound level found so far. */
   energy: number;
+  /** Energy range the mesh must resolve: from the ground level up to `energy` (or the threshold). */
   spread: number;
+  /**
+   * Energy scale below which a level's change is judged absolutely rather than relative to the level (levels near
+   * the energy zero): the spread of the lowest two levels, so asking for more levels never loosens the lowest ones.
+   */
+  settleScale: number;
   center: number;
   width: number;
 }
@@ -78,6 +93,10 @@ interface Context {
   veff: (x: number) => number;
   threshold: number;
   breakpoints: number[];
+  /** Bound levels wanted; each grid solves for this many eigenpairs. */
+  wanted: number;
+  /** Whether the caller named `levels`, so that a shortfall is worth a message. */
+  wantedExplicitly: boolean;
   relTol: number;
   maxNodes: number;
   counters: { grids: number; eigenIterations: number; evaluations: number };
@@ -97,7 +116,7 @@ interface Solution {
   grid: Grid;
   domain: [number, number];
   resolution: Resolution;
-  /** The two lowest eigenvalues of the grid, bound or not: starting brackets for the next grid. */
+  /** The wanted number of lowest eigenvalues of the grid, bound or not: starting brackets for the next grid. */
   eigenvalues: number[];
   /** Eigenvalues below the continuum threshold, ascending. */
   bound: number[];
@@ -177,7 +196,7 @@ function initialEstimate(problem: GridProblem, box: [number, number] | null, vef
   const width = problem.hint?.width ?? (box ? 0.25 * (box[1] - box[0]) : 1);
   const kinetic = 1 / (2 * problem.mass * width * width);
   const v = veff(center);
-  return { energy: Number.isFinite(v) ? v + kinetic : kinetic, spread: kinetic, center, width };
+  return { energy: Number.isFinite(v) ? v + kinetic : kinetic, spread: kinetic, settleScale: kinetic, center, width };
 }
 
 function initialDomain(problem: GridProblem, box: [number, number] | null, estimate: StateEstimate): [number, number] {
@@ -306,7 +325,7 @@ function solve(
   const built = buildGrid(ctx, boundaries, resolution.order);
   if (!built.ok) return built;
   const grid = built.value;
-  const eigen = lowestEigenpairs(grid.band, Math.min(2, grid.band.size), { guesses });
+  const eigen = lowestEigenpairs(grid.band, Math.min(ctx.wanted, grid.band.size), { guesses });
   ctx.counters.grids++;
   ctx.counters.eigenIterations += eigen.bisectionSteps + eigen.inverseIterations;
   if (eigen.values.length === 0) return { ok: false, message: eigen.message ?? 'the eigen-solver returned nothing' };
@@ -340,8 +359,12 @@ function estimateFrom(ctx: Context, solution: Solution, fallback: StateEstimate)
   const e0 = solution.bound[0];
   const energy = solution.bound[solution.bound.length - 1];
   // The ground state's kinetic energy <T> = E0 - <V> is the local energy scale even where levels are nearly degenerate.
-  const spread = Math.max(energy - e0, Number.isFinite(ctx.threshold) ? ctx.threshold - e0 : 0, e0 - meanPotential);
-  return { energy, spread: spread > 0 ? spread : 1 / (2 * ctx.mass * width * width), center, width };
+  const spreadUpTo = (top: number) => {
+    const spread = Math.max(top - e0, Number.isFinite(ctx.threshold) ? ctx.threshold - e0 : 0, e0 - meanPotential);
+    return spread > 0 ? spread : 1 / (2 * ctx.mass * width * width);
+  };
+  const second = solution.bound[Math.min(1, solution.bound.length - 1)];
+  return { energy, spread: spreadUpTo(energy), settleScale: spreadUpTo(second), center, width };
 }
 
 /**
@@ -386,7 +409,10 @@ function sameDomain(a: [number, number], b: [number, number]): boolean {
   return Math.abs(a[0] - b[0]) <= tolerance && Math.abs(a[1] - b[1]) <= tolerance;
 }
 
-/** Pushes the open ends of a domain out by a factor around the estimated state, for when nothing bound was found. */
+/**
+ * Pushes the open ends of a domain out by a factor around the estimated state: for when nothing bound was found, and
+ * as the most one sizing round may grow the domain.
+ */
 function widenedDomain(ctx: Context, domain: [number, number], estimate: StateEstimate): [number, number] {
   const right = estimate.center + 4 * (domain[1] - estimate.center);
   return ctx.space === 'line' ? [estimate.center - 4 * (estimate.center - domain[0]), right] : [0, right];
@@ -423,8 +449,12 @@ function sizeDomain(ctx: Context, start: [number, number], first: StateEstimate)
     if (ctx.box) break;
     const needed = wkbDomain(ctx, estimate, tailDepth);
     if (!needed.ok) return needed;
-    if (sameDomain(domain, needed.value)) break;
-    domain = needed.value;
+    // A level squeezed by too short a domain sits too high, often just below the threshold, where its WKB tail is
+    // far longer than the true level's; growing step by step lets it drop to its place before it sizes the domain.
+    const limit = widenedDomain(ctx, domain, estimate);
+    const next: [number, number] = [Math.max(needed.value[0], limit[0]), Math.min(needed.value[1], limit[1])];
+    if (sameDomain(domain, next)) break;
+    domain = next;
   }
   return last ? { ok: true, value: last } : { ok: false, message: `no bound level below the continuum threshold ${ctx.threshold} was found` };
 }
@@ -441,8 +471,8 @@ function levelChanges(a: Solution, b: Solution): number[] | null {
   return a.bound.map((e, i) => Math.abs(e - b.bound[i]));
 }
 
-function withinTolerance(ctx: Context, solution: Solution, changes: number[], spread: number): boolean {
-  return changes.every((d, i) => d <= ctx.relTol * Math.max(Math.abs(solution.bound[i]), spread));
+function withinTolerance(ctx: Context, solution: Solution, changes: number[], settleScale: number): boolean {
+  return changes.every((d, i) => d <= ctx.relTol * Math.max(Math.abs(solution.bound[i]), settleScale));
 }
 
 interface Refined {
@@ -452,7 +482,7 @@ interface Refined {
   message: string | null;
 }
 
-/** Higher order, then smaller elements, until two successive grids agree on the bound levels to relTol. */
+/** Higher order, then smaller elements, until two successive grids agree on every wanted bound level to relTol. */
 function refine(ctx: Context, start: Solution, estimate: StateEstimate, startChanges: number[] | null): Outcome<Refined> {
   let current = start;
   let lastChanges = startChanges;
@@ -466,7 +496,7 @@ function refine(ctx: Context, start: Solution, estimate: StateEstimate, startCha
     if (!solved.ok) return solved;
     lastChanges = levelChanges(current, solved.value);
     current = solved.value;
-    if (lastChanges && withinTolerance(ctx, current, lastChanges, estimate.spread)) {
+    if (lastChanges && withinTolerance(ctx, current, lastChanges, estimate.settleScale)) {
       return { ok: true, value: { solution: current, errorEstimate: lastChanges, converged: true, message: null } };
     }
   }
@@ -492,7 +522,7 @@ function confirmDomain(ctx: Context, refined: Refined, estimate: StateEstimate, 
   }
   if (!solved.ok) return solved;
   const changes = levelChanges(refined.solution, solved.value);
-  const settled = changes !== null && withinTolerance(ctx, solved.value, changes, estimate.spread);
+  const settled = changes !== null && withinTolerance(ctx, solved.value, changes, estimate.settleScale);
   const errorEstimate = changes
     ? changes.map((d, i) => Math.max(d, refined.errorEstimate[i]))
     : solved.value.bound.map(() => Infinity);
@@ -508,6 +538,7 @@ function failure(ctx: Context, message: string): GridLevels {
     weights: new Float64Array(0),
     ground: new Float64Array(0),
     excited: null,
+    states: [],
     domain: [NaN, NaN],
     converged: false,
     errorEstimate: [],
@@ -524,7 +555,12 @@ function failure(ctx: Context, message: string): GridLevels {
 function report(ctx: Context, refined: Refined): GridLevels {
   const { solution } = refined;
   const eigenNote = solution.eigenConverged ? null : `eigen-solver: ${solution.eigenMessage}`;
-  const message = [refined.message, eigenNote].filter((m) => m !== null).join('; ');
+  const found = solution.bound.length;
+  const shortfall =
+    ctx.wantedExplicitly && found < ctx.wanted
+      ? `only ${found} bound level${found === 1 ? '' : 's'} below the continuum threshold ${ctx.threshold}, ${ctx.wanted} asked for`
+      : null;
+  const message = [shortfall, refined.message, eigenNote].filter((m) => m !== null).join('; ');
   return {
     levels: solution.bound,
     threshold: ctx.threshold,
@@ -532,6 +568,7 @@ function report(ctx: Context, refined: Refined): GridLevels {
     weights: solution.grid.weights,
     ground: solution.states[0],
     excited: solution.states[1] ?? null,
+    states: solution.states,
     domain: solution.domain,
     converged: refined.converged && solution.eigenConverged,
     errorEstimate: refined.errorEstimate,
@@ -558,12 +595,20 @@ function validate(problem: GridProblem): string | null {
   }
   const l = problem.angularMomentum ?? 0;
   if (!Number.isInteger(l) || l < 0) return `angularMomentum must be a non-negative integer, got ${l}`;
+  const levels = problem.levels ?? GRID_DEFAULTS.levels;
+  if (!Number.isInteger(levels) || levels < 1) return `levels must be a positive integer, got ${levels}`;
   return null;
 }
 
 /**
- * Lowest two bound levels of a 1-D (or radial) Schrödinger operator: WKB-sized domain, FE-DVR grids refined until
- * the levels settle, and a confirming run on a longer domain.
+ * Refinement stops when two successive grids agree on the bound levels to relTol; maxNodes caps the work; `levels`
+ * is how many of the lowest bound levels are wanted.
+ */
+export const GRID_DEFAULTS = { relTol: 1e-10, maxNodes: 4000, levels: 2 };
+
+/**
+ * Lowest bound levels of a 1-D (or radial) Schrödinger operator: a domain sized by WKB for the highest wanted level,
+ * FE-DVR grids refined until every wanted level settles, and a confirming run on a longer domain.
  */
 export function gridLevels(problem: GridProblem): GridLevels {
   const counters = { grids: 0, eigenIterations: 0, evaluations: 0 };
@@ -576,8 +621,10 @@ export function gridLevels(problem: GridProblem): GridLevels {
     veff,
     threshold: NaN,
     breakpoints: problem.breakpoints ?? [],
-    relTol: problem.relTol ?? 1e-10,
-    maxNodes: problem.maxNodes ?? 4000,
+    wanted: problem.levels ?? GRID_DEFAULTS.levels,
+    wantedExplicitly: problem.levels !== undefined,
+    relTol: problem.relTol ?? GRID_DEFAULTS.relTol,
+    maxNodes: problem.maxNodes ?? GRID_DEFAULTS.maxNodes,
     counters,
   };
   const invalid = validate(problem);

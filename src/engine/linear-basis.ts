@@ -3,6 +3,7 @@
  * to the lowest several levels at once (Hylleraas & Undheim, Z. Phys. 65, 759 (1930); MacDonald, Phys. Rev.
  * 43, 830 (1933)).
  */
+import { WALL_TOLERANCE } from './tolerances.ts';
 import { domainOf, splitPoints, type Domain } from './domain.ts';
 import { EXPECTATION_DEFAULTS } from './expectation.ts';
 import { GENERALIZED_DEFAULTS, solveGeneralized } from './generalized-eigen.ts';
@@ -51,8 +52,7 @@ export const LINEAR_BASIS_DEFAULTS = {
   overlapThreshold: GENERALIZED_DEFAULTS.relativeThreshold,
   // Past 1e10 a matrix element good to 1e-14 may move a level in its fourth digit in the worst case.
   conditionWarning: 1e10,
-  // The same yardstick as the single-trial hard-wall check of the evaluator.
-  wallTolerance: 1e-8,
+  wallTolerance: WALL_TOLERANCE,
   relTol: EXPECTATION_DEFAULTS.relTol,
   maxIntervals: EXPECTATION_DEFAULTS.maxIntervals,
   // An unconverged matrix element whose error estimate exceeds this fraction of its absolute integral diverges.

@@ -24,15 +24,34 @@ export interface ToleratedValue {
   tolerance: number;
 }
 
-export interface VariationalProblem {
+/** What every block states besides its trial or basis. */
+export interface ProblemBase {
   space: EngineSpace;
   box: [number, number] | null;
   angularMomentum: number;
   mass: number;
   potential: (x: number) => number;
   potentialSwitches: Array<(x: number) => number>;
-  trial: TrialFamily;
   parameters: ParameterSpec[];
   reference: { solve: boolean; published: (ToleratedValue & { source: string }) | null };
   claim: { energy: ToleratedValue | null; parameters: Record<string, ToleratedValue> } | null;
+  /** Which plot data to sample at the optimum. */
+  plots: ReadonlyArray<'scan' | 'density'>;
+}
+
+/** A single trial function with parameters: the variational method proper. */
+export interface VariationalProblem extends ProblemBase {
+  trial: TrialFamily;
+}
+
+/** Basis functions with (optionally) shared nonlinear parameters: the linear variational method. */
+export interface BasisProblem extends ProblemBase {
+  basis: {
+    functions: Array<{ value(x: number): number; d1(x: number): number }>;
+    setParameters(values: ArrayLike<number>): void;
+    /** Functions whose sign changes mark kinks or steps of any basis function. */
+    switches: Array<(x: number) => number>;
+  };
+  /** How many of the lowest levels to report. */
+  states: number;
 }

@@ -1,4 +1,6 @@
 import type { Domain } from './domain.ts';
+import { g } from './format.ts';
+import type { TrialFamily } from './problem.ts';
 
 /** Where a trial's density lives: its peak, a length scale, and whether it is finite everywhere probed. */
 export interface TrialProbe {
@@ -37,6 +39,35 @@ export function probeTrial(value: (x: number) => number, domain: Domain): TrialP
   }
   if (!(scale > 0)) scale = Number.isFinite(domain.hi - domain.lo) ? (domain.hi - domain.lo) / 2 : 1;
   return { center, scale, peakAmplitude, nonFiniteAt: bad ? bad.x : null, evaluations: points.length };
+}
+
+/**
+ * Which factor of the energy integrands is not a finite number: the trial itself, V |psi|^2, or the
+ * trial's derivative, in that order, each at the probe point nearest the trial's peak. A diagnosis
+ * for when the quadrature met one, so the message can say which input is at fault and where.
+ */
+export function findNonFiniteFactor(potential: (x: number) => number, trial: TrialFamily, domain: Domain): string | null {
+  const coordinate = domain.radial ? 'r' : 'x';
+  const samples = probePoints(domain).map((x) => ({ x, psi: trial.value(x) }));
+  let peak = { x: 0, psi: 0 };
+  for (const p of samples) if (Math.abs(p.psi) > Math.abs(peak.psi) && Number.isFinite(p.psi)) peak = p;
+  samples.sort((a, b) => Math.abs(a.x - peak.x) - Math.abs(b.x - peak.x));
+  const at = (x: number) => `${coordinate} = ${g(x, 6)}`;
+
+  const bad = samples.find((p) => !Number.isFinite(p.psi));
+  if (bad) return `the trial is ${g(bad.psi)} at ${at(bad.x)} (${Number.isNaN(bad.psi) ? 'it is not defined there' : 'a trial that overflows is not square-integrable'})`;
+  for (const { x, psi } of samples) {
+    // Where the trial is 0 the potential does not enter the integrand (a wall far out may overflow).
+    const v = psi === 0 ? 0 : potential(x);
+    if (!Number.isFinite(v * psi * psi)) {
+      return `V |psi|^2 is not a finite number at ${at(x)} (the potential there is ${g(v)}, the trial ${g(psi, 4)}); the potential must be finite wherever the trial lives`;
+    }
+  }
+  for (const { x, psi } of samples) {
+    const slope = trial.d1(x);
+    if (!Number.isFinite(slope)) return `the trial's derivative is ${g(slope)} at ${at(x)} (the trial there is ${g(psi, 4)}); write the trial so that no intermediate value overflows`;
+  }
+  return null;
 }
 
 function probePoints(domain: Domain): number[] {
