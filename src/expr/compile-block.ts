@@ -4,6 +4,7 @@ import { checkExpression, type NameScope } from './allow-list.ts';
 import { compileTree } from './compile.ts';
 import { dependsOn, differentiate } from './differentiate.ts';
 import { switchFunctions } from './switch-points.ts';
+import { treeShape } from './tree-shape.ts';
 
 export interface ExpressionProblem {
   field: string;
@@ -16,28 +17,38 @@ export interface ExpressionProblem {
 export interface BlockTrees {
   coordinate: 'x' | 'r';
   potential: MathNode;
-  trial: MathNode;
-  trialD1: MathNode;
-  trialD2: MathNode;
+  /** The trial, or null for a basis block. */
+  trial: MathNode | null;
+  /** The basis functions, or null for a trial block. */
+  basis: MathNode[] | null;
+}
+
+/** A compiled state function and its coordinate derivatives. */
+export interface CompiledFunction {
+  value(x: number): number;
+  d1(x: number): number;
+  d2(x: number): number;
 }
 
 export interface CompiledBlock {
   trees: BlockTrees;
   potential: (x: number) => number;
   potentialSwitches: Array<(x: number) => number>;
-  trial: {
-    setParameters(values: ArrayLike<number>): void;
-    value(x: number): number;
-    d1(x: number): number;
-    d2(x: number): number;
-    switches: Array<(x: number) => number>;
-  };
+  /** Exactly one of trial and basis is set, as the block says. */
+  trial: (CompiledFunction & { setParameters(values: ArrayLike<number>): void; switches: Array<(x: number) => number> }) | null;
+  basis: { functions: CompiledFunction[]; setParameters(values: ArrayLike<number>): void; switches: Array<(x: number) => number> } | null;
 }
 
 export type CompileResult = { ok: true; block: CompiledBlock } | { ok: false; problems: ExpressionProblem[] };
 
 /** hbar in atomic units. */
 const HBAR = 1;
+/**
+ * Terms a derivative of the trial may have when written out: some twenty times what honest trials
+ * need (a 30-term polynomial times a Gaussian has about 1000), small enough that a product or tower
+ * of a few dozen factors, whose derivatives grow like a power of its length, is refused at once.
+ */
+export const MAX_DERIVATIVE_SIZE = 20_000;
 
 /**
  * Checks a block's expressions against its declarations and compiles the potential, the trial
@@ -49,25 +60,28 @@ export function compileBlock(spec: BlockSpec): CompileResult {
   const constants: Record<string, number> = { pi: Math.PI, e: Math.E, ...spec.constants, ...spec.fixed, mass: spec.mass, hbar: HBAR };
   const problems: ExpressionProblem[] = [];
 
-  const check = (field: 'potential' | 'trial', variables: string[]): MathNode | null => {
-    const source = spec[field];
-    const result = checkExpression(source.text, { variables, constants } satisfies NameScope);
+  // A trial block has one state function named `trial`; a basis block has `basis[0]`, `basis[1]`, ...
+  const states = spec.trial ? [{ field: 'trial', ...spec.trial }] : (spec.basis ?? []).map((b, i) => ({ field: `basis[${i}]`, ...b }));
+  const check = (field: string, text: string, line: number, variables: string[]): MathNode | null => {
+    const result = checkExpression(text, { variables, constants } satisfies NameScope);
     if (result.ok) return result.tree;
-    problems.push({ field, line: source.line, token: result.token, message: explain(result.token, result.message, spec, coordinate, field) });
+    problems.push({ field, line, token: result.token, message: explain(result.token, result.message, spec, coordinate, field) });
     return null;
   };
-  const potentialTree = check('potential', [coordinate]);
-  const trialTree = check('trial', [coordinate, ...varied]);
-  if (!potentialTree || !trialTree) return { ok: false, problems };
+  const potentialTree = check('potential', spec.potential.text, spec.potential.line, [coordinate]);
+  const stateTrees = states.map((f) => check(f.field, f.text, f.line, [coordinate, ...varied]));
+  if (!potentialTree || stateTrees.some((t) => t === null)) return { ok: false, problems };
+  const trees = stateTrees as MathNode[];
+  const unused = spec.trial ? 'the trial does not use it' : 'no basis function uses it';
 
   for (const parameter of spec.varied) {
-    if (!dependsOn(trialTree, parameter.name)) {
-      problems.push({ field: `parameters.${parameter.name}`, line: parameter.line, token: parameter.name, message: `parameter ${parameter.name} is varied but the trial does not use it` });
+    if (!trees.some((t) => dependsOn(t, parameter.name))) {
+      problems.push({ field: `parameters.${parameter.name}`, line: parameter.line, token: parameter.name, message: `parameter ${parameter.name} is varied but ${unused}` });
     }
   }
-  if (!dependsOn(trialTree, coordinate)) {
-    problems.push({ field: 'trial', line: spec.trial.line, token: null, message: `the trial does not depend on the coordinate ${coordinate}` });
-  }
+  trees.forEach((tree, i) => {
+    if (!dependsOn(tree, coordinate)) problems.push({ field: states[i].field, line: states[i].line, token: null, message: `${states[i].field === 'trial' ? 'the trial' : `basis function ${i}`} does not depend on the coordinate ${coordinate}` });
+  });
   if (problems.length > 0) return { ok: false, problems };
 
   const slotOf: Record<string, number> = { [coordinate]: 0 };
@@ -78,26 +92,42 @@ export function compileBlock(spec: BlockSpec): CompileResult {
     slots[0] = x;
     return f(slots);
   };
-
-  const d1Tree = differentiate(trialTree, coordinate);
-  const d2Tree = differentiate(d1Tree, coordinate);
+  const setParameters = (values: ArrayLike<number>) => {
+    for (let i = 0; i < varied.length; i++) slots[i + 1] = values[i];
+  };
   const onCoordinate = (tree: MathNode) => switchFunctions(tree).filter((g) => dependsOn(g, coordinate)).map((g) => at(compile(g)));
+
+  const functions: CompiledFunction[] = [];
+  for (let i = 0; i < trees.length; i++) {
+    const d1Tree = differentiate(trees[i], coordinate);
+    const d1Refusal = tooLarge(d1Tree, 'first', states[i]);
+    if (d1Refusal) return { ok: false, problems: [d1Refusal] };
+    const d2Tree = differentiate(d1Tree, coordinate);
+    const d2Refusal = tooLarge(d2Tree, 'second', states[i]);
+    if (d2Refusal) return { ok: false, problems: [d2Refusal] };
+    functions.push({ value: at(compile(trees[i])), d1: at(compile(d1Tree)), d2: at(compile(d2Tree)) });
+  }
+  const switches = trees.flatMap(onCoordinate);
   return {
     ok: true,
     block: {
-      trees: { coordinate, potential: potentialTree, trial: trialTree, trialD1: d1Tree, trialD2: d2Tree },
+      trees: { coordinate, potential: potentialTree, trial: spec.trial ? trees[0] : null, basis: spec.trial ? null : trees },
       potential: at(compile(potentialTree)),
       potentialSwitches: onCoordinate(potentialTree),
-      trial: {
-        setParameters(values) {
-          for (let i = 0; i < varied.length; i++) slots[i + 1] = values[i];
-        },
-        value: at(compile(trialTree)),
-        d1: at(compile(d1Tree)),
-        d2: at(compile(d2Tree)),
-        switches: onCoordinate(trialTree),
-      },
+      trial: spec.trial ? { ...functions[0], setParameters, switches } : null,
+      basis: spec.trial ? null : { functions, setParameters, switches },
     },
+  };
+}
+
+function tooLarge(tree: MathNode, order: 'first' | 'second', state: { field: string; line: number }): ExpressionProblem | null {
+  const { size } = treeShape(tree);
+  if (size <= MAX_DERIVATIVE_SIZE) return null;
+  return {
+    field: state.field,
+    line: state.line,
+    token: null,
+    message: `the ${state.field === 'trial' ? "trial's" : `${state.field} function's`} ${order} derivative has ${size} terms when written out (the limit is ${MAX_DERIVATIVE_SIZE}); write the trial with fewer nested products, powers or functions`,
   };
 }
 

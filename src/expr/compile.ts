@@ -33,9 +33,12 @@ export function compileTree(node: MathNode, slotOf: Readonly<Record<string, numb
     }
     case 'SymbolNode': {
       const name = (node as SymbolNode).name;
-      const slot = slotOf[name];
-      if (slot !== undefined) return (s) => s[slot];
-      const value = constants[name];
+      // Own keys only: a constant named constructor must not find Object's.
+      if (Object.hasOwn(slotOf, name)) {
+        const slot = slotOf[name];
+        return (s) => s[slot];
+      }
+      const value = Object.hasOwn(constants, name) ? constants[name] : undefined;
       if (value === undefined) throw new Error(`name ${name} has no value: the allow-list should have refused it`);
       return () => value;
     }

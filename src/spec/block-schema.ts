@@ -11,15 +11,28 @@ const expression = z
   .transform(String)
   .pipe(z.string().min(1, 'must not be empty'));
 
+// In quantity mode a number may carry a unit ("0.067 electronMass"); in atomic units parse-block refuses such text.
+const numberMessage = (data: unknown, positive: boolean) =>
+  data === undefined ? 'is required' : typeof data !== 'number' ? 'must be a number' : !Number.isFinite(data) ? 'must be a finite number' : positive ? 'must be positive' : 'must be a number';
+// Text in a numeric field is a quantity such as "2 nm": branded so that code which needs plain numbers cannot miss it.
+const quantityText = z.string().min(1, 'must not be empty').brand<'QuantityText'>();
+export type QuantityText = z.infer<typeof quantityText>;
+const quantity = z.union([finite, quantityText], { errorMap: (_issue, ctx) => ({ message: numberMessage(ctx.data, false) }) });
+const positiveQuantity = z.union([finite.positive('must be positive'), quantityText], {
+  errorMap: (_issue, ctx) => ({ message: numberMessage(ctx.data, true) }),
+});
+
 const range = z
-  .object({ start: finite, min: finite, max: finite }, { invalid_type_error: 'must be a number (held fixed) or { start, min, max } (varied)' })
+  .object({ start: quantity, min: quantity, max: quantity }, { invalid_type_error: 'must be a number (held fixed) or { start, min, max } (varied)' })
   .strict()
   .superRefine((r, ctx) => {
+    // Quantities with units are compared once converted (units/quantity-block.ts).
+    if (typeof r.start !== 'number' || typeof r.min !== 'number' || typeof r.max !== 'number') return;
     if (!(r.min < r.max)) ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['max'], message: `max (${r.max}) must be larger than min (${r.min})` });
     else if (r.start < r.min || r.start > r.max) ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['start'], message: `start (${r.start}) must lie within [${r.min}, ${r.max}]` });
   });
 
-const claimedValue = z.union([finite, z.object({ value: finite, tolerance: finite.positive('must be positive') }).strict()], {
+const claimedValue = z.union([quantity, z.object({ value: quantity, tolerance: positiveQuantity }).strict()], {
   errorMap: () => ({ message: 'must be a number or { value, tolerance }' }),
 });
 
@@ -35,21 +48,24 @@ export const blockSchema = z
     caption: z.string().optional(),
     units: z.union([z.literal('atomic'), z.record(z.string())], { errorMap: () => ({ message: 'must be atomic or a map such as { length: nm, energy: meV }' }) }).optional(),
     space: z.enum(['line', 'half-line', 'radial'], { errorMap: () => ({ message: 'must be one of line, half-line, radial' }) }).optional(),
-    box: z.tuple([finite, finite], { errorMap: () => ({ message: 'must be [a, b] with two numbers' }) }).optional(),
-    'angular-momentum': z.number().int('must be an integer').min(0, 'must be 0 or more').optional(),
-    mass: finite.positive('must be positive').optional(),
-    constants: z.record(name, finite).optional(),
+    box: z.tuple([quantity, quantity], { errorMap: () => ({ message: 'must be [a, b] with two numbers' }) }).optional(),
+    'angular-momentum': z.number({ invalid_type_error: 'must be a whole number 0, 1, 2, ...' }).int('must be an integer').min(0, 'must be 0 or more').optional(),
+    mass: positiveQuantity.optional(),
+    constants: z.record(name, quantity).optional(),
     potential: expression,
     trial: expression.optional(),
     basis: z.array(expression).optional(),
-    states: z.number().int().positive().optional(),
-    parameters: z.record(name, z.union([finite, range])).optional(),
+    states: z.number({ invalid_type_error: 'must be a whole number' }).int('must be a whole number').positive('must be 1 or more').max(50, 'at most 50 levels').optional(),
+    parameters: z.record(name, z.union([quantity, range])).optional(),
     reference: z
-      .object({ solve: z.boolean().optional(), energy: finite.optional(), tolerance: finite.positive('must be positive').optional(), source: z.string().min(1).optional() })
+      .object(
+        { solve: z.boolean({ invalid_type_error: 'must be true or false' }).optional(), energy: quantity.optional(), tolerance: positiveQuantity.optional(), source: z.string({ invalid_type_error: 'must be text (a citation)' }).min(1).optional() },
+        { invalid_type_error: 'must be a map such as { solve: false } or { energy, source }' },
+      )
       .strict()
       .optional(),
     claim: z
-      .object({ energy: finite.optional(), tolerance: finite.positive('must be positive').optional(), parameters: z.record(name, claimedValue).optional() })
+      .object({ energy: quantity.optional(), tolerance: positiveQuantity.optional(), parameters: z.record(name, claimedValue).optional() }, { invalid_type_error: 'must be a map such as { energy, tolerance, parameters }' })
       .strict()
       .optional(),
     report: z

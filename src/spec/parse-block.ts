@@ -1,14 +1,16 @@
 import { isScalar, LineCounter, parseDocument, type Document } from 'yaml';
 import type { ZodIssue } from 'zod';
-import { blockSchema, RESERVED_NAMES, type RawBlock } from './block-schema.ts';
+import { blockSchema, RESERVED_NAMES, type QuantityText, type RawBlock } from './block-schema.ts';
 import type { FencedBlock } from './find-blocks.ts';
 import type { BlockEntry, BlockSpec, Claimed, SpecProblem } from './types.ts';
 import { writtenPrecision } from './written-precision.ts';
+import { locateYamlError } from './yaml-errors.ts';
+import { convertQuantityBlock, type QuantityBlockSource, type QuantitySource } from '../units/quantity-block.ts';
 
 /** Turns one fenced block into a validated spec, or into the problems that make it invalid. */
 export function parseBlock(file: string, fenced: FencedBlock, index: number): BlockEntry {
   const lineCounter = new LineCounter();
-  const doc = parseDocument(fenced.text, { lineCounter, prettyErrors: false, uniqueKeys: true });
+  const doc = parseDocument(fenced.text, { lineCounter, prettyErrors: false, uniqueKeys: true, logLevel: 'error' });
   // The YAML starts on the line after the opening fence.
   const lineAt = (offset: number) => fenced.line + lineCounter.linePos(offset).line;
   const lineOf = (path: (string | number)[]) => nodeLine(doc, path, lineAt) ?? fenced.line;
@@ -24,9 +26,27 @@ export function parseBlock(file: string, fenced: FencedBlock, index: number): Bl
   });
 
   if (doc.errors.length > 0) {
-    return invalid(doc.errors.map((e) => ({ file, line: lineAt(e.pos[0]), block: looseId, field: null, message: `the block is not valid YAML: ${firstLine(e.message)} (quote an expression that holds ': ', such as "c ? a : b")` })));
+    const lines = fenced.text.split('\n');
+    const seen = new Set<string>();
+    const problems = doc.errors.flatMap((e): SpecProblem[] => {
+      const { index, field, reason } = locateYamlError(lines, e, lineCounter.linePos(e.pos[0]).line - 1);
+      const found = { file, line: fenced.line + 1 + index, block: looseId, field, message: `the block is not valid YAML: ${reason}` };
+      // Deep nesting fails once per level with the same message; one is enough.
+      const key = `${found.line} ${found.message}`;
+      if (seen.has(key)) return [];
+      seen.add(key);
+      return [found];
+    });
+    return invalid(problems);
   }
-  const data: unknown = doc.toJS();
+  let data: unknown;
+  try {
+    data = doc.toJS();
+  } catch (error) {
+    // Aliases that expand without bound, or that name no anchor, fail only when the YAML is expanded.
+    const reason = error instanceof Error ? error.message : String(error);
+    return invalid([problem([], `the block's YAML aliases (*name) cannot be expanded: ${reason}`)]);
+  }
   if (data === null || typeof data !== 'object' || Array.isArray(data)) {
     return invalid([problem([], 'the block must be a YAML map of fields (id, potential, trial, ...)')]);
   }
@@ -42,29 +62,135 @@ export function parseBlock(file: string, fenced: FencedBlock, index: number): Bl
   const raw = parsed.data;
   const problems = meaningProblems(raw).map(([path, message]) => problem(path, message));
   if (problems.length > 0) return invalid(problems);
-  return { kind: 'spec', spec: toSpec(raw, fenced.line, doc, lineOf), source: fenced.text };
+  if (isQuantityMode(raw)) {
+    const converted = convertQuantityBlock(file, quantitySource(raw, fenced.line, doc, lineOf));
+    return converted.ok ? { kind: 'spec', spec: converted.spec, source: fenced.text } : invalid(converted.problems);
+  }
+  return { kind: 'spec', spec: toSpec(raw as AtomicBlock, fenced.line, doc, lineOf), source: fenced.text };
 }
+
+/** The potential and the trial or basis, each with its line, and how many states a basis reports. */
+function expressions(raw: RawBlock, lineOf: (path: Path) => number): Pick<BlockSpec, 'potential' | 'trial' | 'basis' | 'states'> {
+  return {
+    potential: { text: raw.potential, line: lineOf(['potential']) },
+    trial: raw.trial === undefined ? null : { text: raw.trial, line: lineOf(['trial']) },
+    basis: raw.basis === undefined ? null : raw.basis.map((text, i) => ({ text, line: lineOf(['basis', i]) })),
+    states: raw.states ?? 1,
+  };
+}
+
+/** `units` written as a map ({ length: nm, energy: meV }) puts the block in quantity mode. */
+function isQuantityMode(raw: RawBlock): raw is RawBlock & { units: Record<string, string> } {
+  return raw.units !== undefined && raw.units !== 'atomic';
+}
+
+type Path = (string | number)[];
+
+/** Every field that holds a number, or in quantity mode a quantity, with its path. */
+function quantityFields(raw: RawBlock): Array<[Path, number | string]> {
+  const fields: Array<[Path, number | string | undefined]> = [
+    [['mass'], raw.mass],
+    [['reference', 'energy'], raw.reference?.energy],
+    [['reference', 'tolerance'], raw.reference?.tolerance],
+    [['claim', 'energy'], raw.claim?.energy],
+    [['claim', 'tolerance'], raw.claim?.tolerance],
+    ...(raw.box ?? []).map((v, i): [Path, number | string] => [['box', i], v]),
+    ...Object.entries(raw.constants ?? {}).map(([k, v]): [Path, number | string] => [['constants', k], v]),
+  ];
+  for (const [k, v] of Object.entries(raw.parameters ?? {})) {
+    if (typeof v === 'object') fields.push([['parameters', k, 'start'], v.start], [['parameters', k, 'min'], v.min], [['parameters', k, 'max'], v.max]);
+    else fields.push([['parameters', k], v]);
+  }
+  for (const [k, v] of Object.entries(raw.claim?.parameters ?? {})) {
+    if (typeof v === 'object') fields.push([['claim', 'parameters', k, 'value'], v.value], [['claim', 'parameters', k, 'tolerance'], v.tolerance]);
+    else fields.push([['claim', 'parameters', k], v]);
+  }
+  return fields.filter((f): f is [Path, number | string] => f[1] !== undefined);
+}
+
+/** A block whose numeric fields all hold plain numbers (atomic units; quantityFields has checked them). */
+type Numeric<T> = T extends QuantityText ? never : T extends object ? { [K in keyof T]: Numeric<T[K]> } : T;
+type AtomicBlock = Numeric<RawBlock>;
+
+/** The quantity-mode block with every number kept as its written text and line, for the units layer to read. */
+function quantitySource(raw: RawBlock & { units: Record<string, string> }, line: number, doc: Document, lineOf: (path: Path) => number): QuantityBlockSource {
+  const at = (path: Path, value: number | string): QuantitySource => ({ text: scalarSource(doc, path) ?? String(value), line: lineOf(path) });
+  const optional = (path: Path, value: number | string | undefined) => (value === undefined ? null : at(path, value));
+  const varied: QuantityBlockSource['varied'] = [];
+  const fixed: Record<string, QuantitySource> = {};
+  for (const [name, entry] of Object.entries(raw.parameters ?? {})) {
+    const path = ['parameters', name];
+    if (typeof entry === 'object') varied.push({ name, start: at([...path, 'start'], entry.start), min: at([...path, 'min'], entry.min), max: at([...path, 'max'], entry.max), line: lineOf(path) });
+    else fixed[name] = at(path, entry);
+  }
+  const claimParameters: NonNullable<QuantityBlockSource['claim']>['parameters'] = {};
+  for (const [name, entry] of Object.entries(raw.claim?.parameters ?? {})) {
+    const path = ['claim', 'parameters', name];
+    claimParameters[name] = typeof entry === 'object' ? { value: at([...path, 'value'], entry.value), tolerance: at([...path, 'tolerance'], entry.tolerance) } : { value: at(path, entry), tolerance: null };
+  }
+  return {
+    id: raw.id,
+    caption: raw.caption ?? null,
+    line,
+    units: { entries: Object.fromEntries(Object.entries(raw.units).map(([k, v]) => [k, at(['units', k], v)])), line: lineOf(['units']) },
+    space: raw.space ?? 'line',
+    box: raw.box ? [at(['box', 0], raw.box[0]), at(['box', 1], raw.box[1])] : null,
+    angularMomentum: raw['angular-momentum'] ?? 0,
+    mass: optional(['mass'], raw.mass),
+    constants: Object.fromEntries(Object.entries(raw.constants ?? {}).map(([k, v]) => [k, at(['constants', k], v)])),
+    ...expressions(raw, lineOf),
+    varied,
+    fixed,
+    reference: {
+      solve: raw.reference?.solve ?? true,
+      energy: optional(['reference', 'energy'], raw.reference?.energy),
+      tolerance: optional(['reference', 'tolerance'], raw.reference?.tolerance),
+      source: raw.reference?.source ?? null,
+    },
+    claim: raw.claim
+      ? { energy: optional(['claim', 'energy'], raw.claim.energy), tolerance: optional(['claim', 'tolerance'], raw.claim.tolerance), parameters: claimParameters }
+      : null,
+    report: { energyUnit: optional(['report', 'energy-unit'], raw.report?.['energy-unit']), plots: raw.report?.plots ?? ['scan', 'density'] },
+  };
+}
+
+/**
+ * Varied parameters a block may have. The search and the curvature at its optimum cost more than
+ * the square of their number in energy evaluations (32 take seconds, 200 take minutes); honest trial
+ * families vary a handful.
+ */
+export const MAX_VARIED_PARAMETERS = 32;
 
 /** Rules that need more than one field, or that later versions will lift. */
 function meaningProblems(raw: RawBlock): Array<[(string | number)[], string]> {
   const found: Array<[(string | number)[], string]> = [];
-  if (raw.units !== undefined && raw.units !== 'atomic') found.push([['units'], 'quantity mode (units as a map) is not supported yet; write the block in atomic units']);
-  if (raw.basis !== undefined) found.push([['basis'], 'the linear variational method (basis) is not supported yet']);
-  if (raw.states !== undefined) found.push([['states'], 'states goes with basis, which is not supported yet']);
-  if (raw.trial === undefined && raw.basis === undefined) found.push([['trial'], 'the block needs a trial function (trial)']);
+  const quantityMode = isQuantityMode(raw);
+  if (!quantityMode) {
+    for (const [path, value] of quantityFields(raw)) {
+      if (typeof value === 'string') found.push([path, `must be a number in atomic units; ${JSON.stringify(value)} is text (a quantity with a unit needs quantity mode: units: { length: nm, energy: meV })`]);
+    }
+  }
+  if (raw.trial === undefined && raw.basis === undefined) found.push([['trial'], 'the block needs a trial function (trial) or a basis (basis)']);
+  if (raw.trial !== undefined && raw.basis !== undefined) found.push([['basis'], 'a block has either a trial or a basis, not both']);
+  if (raw.basis !== undefined && raw.basis.length === 0) found.push([['basis'], 'the basis needs at least one function']);
+  if (raw.states !== undefined && raw.basis === undefined) found.push([['states'], 'states goes with basis: a single trial gives one level']);
   const space = raw.space ?? 'line';
   if (raw.box !== undefined) {
     if (space !== 'line') found.push([['box'], `box applies to space line only, not ${space}`]);
-    else if (!(raw.box[0] < raw.box[1])) found.push([['box'], `box [${raw.box[0]}, ${raw.box[1]}] must have its left wall below its right wall`]);
+    else if (typeof raw.box[0] === 'number' && typeof raw.box[1] === 'number' && !(raw.box[0] < raw.box[1])) found.push([['box'], `box [${raw.box[0]}, ${raw.box[1]}] must have its left wall below its right wall`]);
   }
   if (raw['angular-momentum'] !== undefined && space !== 'radial') found.push([['angular-momentum'], 'angular-momentum applies to space radial only']);
   if (raw.reference?.energy !== undefined && raw.reference.source === undefined) found.push([['reference', 'source'], 'a published reference energy needs its source (a citation)']);
   if (raw.reference?.tolerance !== undefined && raw.reference.energy === undefined) found.push([['reference', 'tolerance'], 'tolerance applies to a published reference energy, and none is given']);
   if (raw.claim?.tolerance !== undefined && raw.claim.energy === undefined) found.push([['claim', 'tolerance'], 'tolerance applies to a claimed energy, and none is given']);
-  if (raw.report?.['energy-unit'] !== undefined && raw.report['energy-unit'] !== 'hartree') {
-    found.push([['report', 'energy-unit'], `energy unit ${raw.report['energy-unit']} is not supported yet in atomic units; results are in hartree`]);
+  if (!quantityMode && raw.report?.['energy-unit'] !== undefined && raw.report['energy-unit'] !== 'hartree') {
+    found.push([['report', 'energy-unit'], `energy-unit ${raw.report['energy-unit']} needs quantity mode (units: { length: nm, energy: meV }); atomic-unit blocks report in hartree`]);
   }
   const parameterNames = Object.keys(raw.parameters ?? {});
+  const varied = Object.values(raw.parameters ?? {}).filter((entry) => typeof entry !== 'number').length;
+  if (varied > MAX_VARIED_PARAMETERS) {
+    found.push([['parameters'], `${varied} parameters are varied; at most ${MAX_VARIED_PARAMETERS} may be: hold the others fixed (a plain value each)`]);
+  }
   for (const [group, names] of [['constants', Object.keys(raw.constants ?? {})], ['parameters', parameterNames]] as const) {
     for (const name of names) {
       if ((RESERVED_NAMES as readonly string[]).includes(name)) found.push([[group, name], `${name} is a reserved name (coordinate or built-in); choose another`]);
@@ -79,7 +205,7 @@ function meaningProblems(raw: RawBlock): Array<[(string | number)[], string]> {
   return found;
 }
 
-function toSpec(raw: RawBlock, line: number, doc: Document, lineOf: (path: (string | number)[]) => number): BlockSpec {
+function toSpec(raw: AtomicBlock, line: number, doc: Document, lineOf: (path: (string | number)[]) => number): BlockSpec {
   const claimed = (path: (string | number)[], value: number, tolerance?: number, unitFraction: 0.5 | 1 = 0.5): Claimed => ({
     value,
     tolerance: tolerance ?? writtenPrecision(scalarSource(doc, path) ?? String(value), value, unitFraction),
@@ -104,8 +230,7 @@ function toSpec(raw: RawBlock, line: number, doc: Document, lineOf: (path: (stri
     angularMomentum: raw['angular-momentum'] ?? 0,
     mass: raw.mass ?? 1,
     constants: raw.constants ?? {},
-    potential: { text: raw.potential, line: lineOf(['potential']) },
-    trial: { text: raw.trial ?? '', line: lineOf(['trial']) },
+    ...expressions(raw, lineOf),
     varied,
     fixed,
     reference: {
@@ -117,6 +242,7 @@ function toSpec(raw: RawBlock, line: number, doc: Document, lineOf: (path: (stri
       ? { energy: raw.claim.energy === undefined ? null : claimed(['claim', 'energy'], raw.claim.energy, raw.claim.tolerance), parameters: claimParameters }
       : null,
     report: { energyUnit: raw.report?.['energy-unit'] ?? null, plots: raw.report?.plots ?? ['scan', 'density'] },
+    quantity: null,
   };
 }
 
@@ -132,13 +258,14 @@ function describeIssue(issue: ZodIssue): string {
 
 function nodeLine(doc: Document, path: (string | number)[], lineAt: (offset: number) => number): number | null {
   for (let depth = path.length; depth > 0; depth--) {
-    const node = doc.getIn(path.slice(0, depth), true) as { range?: [number, number, number] } | undefined;
-    if (node?.range) return lineAt(node.range[0]);
+    // The key's line first: a nested map's own range starts at its first entry, a line too late.
     const parent = depth > 1 ? doc.getIn(path.slice(0, depth - 1), true) : doc.contents;
     const pair = (parent as { items?: Array<{ key?: { value?: unknown; range?: [number, number, number] } }> } | null)?.items?.find(
       (item) => item.key?.value === path[depth - 1],
     );
     if (pair?.key?.range) return lineAt(pair.key.range[0]);
+    const node = doc.getIn(path.slice(0, depth), true) as { range?: [number, number, number] } | undefined;
+    if (node?.range) return lineAt(node.range[0]);
   }
   return null;
 }
@@ -151,8 +278,4 @@ function scalarSource(doc: Document, path: (string | number)[]): string | null {
 function guessId(doc: Document): string | null {
   const id = doc.get('id');
   return typeof id === 'string' || typeof id === 'number' ? String(id) : null;
-}
-
-function firstLine(message: string): string {
-  return message.split('\n')[0];
 }

@@ -31,6 +31,19 @@ export interface Claimed {
   tolerance: number;
 }
 
+/**
+ * A block written in quantity mode, converted to atomic units: how to state the engine's numbers in the block's
+ * units (value in unit = atomic value * factor), and the physical constants the conversion rests on.
+ */
+export interface QuantityMode {
+  energy: { unit: string; perHartree: number; definition: string };
+  length: { unit: string; perBohr: number };
+  parameters: Record<string, { unit: string | null; perAtomic: number }>;
+  constantsUsed: Array<{ name: string; value: number; unit: string; source: string }>;
+  /** Names in `constants` that are mathjs units or constants bound by the conversion, not declared by the author. */
+  bound: string[];
+}
+
 export interface BlockSpec {
   id: string;
   caption: string | null;
@@ -42,7 +55,11 @@ export interface BlockSpec {
   mass: number;
   constants: Record<string, number>;
   potential: SourceText;
-  trial: SourceText;
+  /** Exactly one of trial and basis is given. */
+  trial: SourceText | null;
+  /** The linear variational method: the functions whose span is searched, and how many levels to report. */
+  basis: SourceText[] | null;
+  states: number;
   varied: VariedParameter[];
   fixed: Record<string, number>;
   reference: {
@@ -58,6 +75,8 @@ export interface BlockSpec {
     energyUnit: string | null;
     plots: Array<'scan' | 'density'>;
   };
+  /** Set when the block was written in quantity mode; its numbers above are then in atomic units. */
+  quantity: QuantityMode | null;
 }
 
 /** A block as found in the record: either a valid spec or the problems that make it invalid. */

@@ -69,7 +69,7 @@ describe('parseRecord: a good record (RECORD-FORMAT.md example)', () => {
     expect(s.id).toBe('gauss-2p');
     expect(s.caption).toBeNull();
     expect(s.potential.text).toBe('x^2/2 + 0.1*x^4');
-    expect(s.trial.text).toBe('exp(-a*x^2) * (1 + c*x^2)');
+    expect(s.trial?.text).toBe('exp(-a*x^2) * (1 + c*x^2)');
     expect(s.varied.map(({ name, start, min, max }) => ({ name, start, min, max }))).toEqual([
       { name: 'a', start: 0.5, min: 0.01, max: 10 },
       { name: 'c', start: 0, min: -1, max: 1 },
@@ -98,7 +98,7 @@ describe('parseRecord: a good record (RECORD-FORMAT.md example)', () => {
     const fence = lineWhere(text, (l) => l === '```variational');
     expect(s.line).toBe(fence);
     expect(s.potential.line).toBe(lineWhere(text, (l) => l.startsWith('potential:')));
-    expect(s.trial.line).toBe(lineWhere(text, (l) => l.startsWith('trial:')));
+    expect(s.trial?.line).toBe(lineWhere(text, (l) => l.startsWith('trial:')));
     expect(s.varied[0].line).toBe(lineWhere(text, (l) => l.startsWith('  a:')));
     expect(s.varied[1].line).toBe(lineWhere(text, (l) => l.startsWith('  c:')));
   });
@@ -108,7 +108,7 @@ describe('parseRecord: a good record (RECORD-FORMAT.md example)', () => {
     const blocks = parseRecord(FILE, two).blocks;
     const secondFence = lineWhere(two, (l) => l === '```variational', lineWhere(two, (l) => l === '```variational'));
     expect(spec(blocks[1]).line).toBe(secondFence);
-    expect(spec(blocks[1]).trial.line).toBe(lineWhere(two, (l) => l.startsWith('trial:'), secondFence));
+    expect(spec(blocks[1]).trial?.line).toBe(lineWhere(two, (l) => l.startsWith('trial:'), secondFence));
   });
 
   it('reads a fixed parameter, constants and a published reference', () => {
@@ -253,17 +253,34 @@ describe('parseRecord: blocks that are refused', () => {
     expect(blocks[1].kind === 'invalid' && blocks[1].line).toBe(second);
   });
 
-  it('quantity mode (units as a map) is refused as not supported yet', () => {
-    const p = problems(one(minimal('units: { length: nm, energy: meV }\n')));
+  it('a number with a unit in an atomic-unit block is refused, pointing to quantity mode', () => {
+    const p = problems(one(minimal('mass: 0.067 electronMass\n')));
     expect(p).toHaveLength(1);
-    expect(p[0].field).toBe('units');
-    expect(p[0].message).toMatch(/not supported yet/);
+    expect(p[0].field).toBe('mass');
+    expect(p[0].message).toMatch(/must be a number in atomic units.*quantity mode/);
   });
 
-  it('basis is refused as not supported yet', () => {
-    const p = problems(one('id: lb\npotential: x^2/2\nbasis: [exp(-x^2), x^2*exp(-x^2)]\n'));
-    expect(p.map((q) => q.field)).toContain('basis');
-    expect(p.find((q) => q.field === 'basis')!.message).toMatch(/not supported yet/);
+  it('a quantity-mode block is converted to atomic units, keeping how to state results in its units', () => {
+    // 1 nm = 18.897261246 bohr (NIST CODATA 2018 Bohr radius 5.29177210903e-11 m).
+    const s = spec(one('id: q\nunits: { length: nm, energy: meV }\npotential: 0\nbox: [0, 2]\ntrial: x*(2 nm - x)\n'));
+    expect(s.box![1]).toBeCloseTo(2 / 0.0529177210903, 6);
+    expect(s.quantity?.energy.unit).toBe('meV');
+    expect(s.quantity?.length.unit).toBe('nm');
+  });
+
+  it('a basis block keeps each function with its own line, and states', () => {
+    const text = 'id: lb\npotential: x^2/2\nbasis:\n  - exp(-x^2)\n  - x^2*exp(-x^2)\nstates: 2\n';
+    const s = spec(one(text));
+    expect(s.trial).toBeNull();
+    expect(s.basis?.map((b) => b.text)).toEqual(['exp(-x^2)', 'x^2*exp(-x^2)']);
+    expect(s.basis?.[1].line).toBe(s.basis![0].line + 1);
+    expect(s.states).toBe(2);
+  });
+
+  it('a block with both a trial and a basis, or states without a basis, is refused naming the field', () => {
+    expect(problems(one('id: lb\npotential: x^2/2\ntrial: exp(-x^2)\nbasis: [exp(-x^2)]\n')).map((q) => q.field)).toContain('basis');
+    expect(problems(one('id: lb\npotential: x^2/2\ntrial: exp(-x^2)\nstates: 2\n')).map((q) => q.field)).toContain('states');
+    expect(problems(one('id: lb\npotential: x^2/2\nbasis: []\n')).map((q) => q.field)).toContain('basis');
   });
 });
 
