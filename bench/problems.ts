@@ -3,8 +3,12 @@ import os from 'node:os';
 import { collectRecordFiles } from '../src/log/check-log.ts';
 import { evaluateBlock } from '../src/log/evaluate-block.ts';
 import { parseRecord } from '../src/spec/parse-record.ts';
+import { benchSyntheticLog } from './log200.ts';
 
-/** Evaluates every benchmark record repeatedly and prints one comparable JSON document (progress on stderr). */
+/**
+ * Evaluates every benchmark record repeatedly, then checks a synthetic 200-block log through the CLI
+ * cold and cached, and prints one comparable JSON document (progress on stderr).
+ */
 const WARM_UP = 2;
 const RUNS = 7;
 const median = (values: number[]) => [...values].sort((a, b) => a - b)[Math.floor(values.length / 2)];
@@ -32,4 +36,5 @@ for (const file of collectRecordFiles([folder]).files) {
     process.stderr.write(`${key}: ${last.status}\n`);
   }
 }
-process.stdout.write(JSON.stringify({ node: process.version, cores: os.availableParallelism(), problems }, null, 2) + '\n');
+const log200 = await benchSyntheticLog(200);
+process.stdout.write(JSON.stringify({ node: process.version, cores: os.availableParallelism(), problems, log200 }, null, 2) + '\n');

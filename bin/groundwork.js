@@ -4,4 +4,4 @@ import { register } from 'tsx/esm/api';
 
 register();
 const { main } = await import('../src/cli/main.ts');
-process.exitCode = main(process.argv.slice(2), (text) => process.stdout.write(text + '\n'), (text) => process.stderr.write(text + '\n'));
+process.exitCode = await main(process.argv.slice(2), (text) => process.stdout.write(text + '\n'), (text) => process.stderr.write(text + '\n'));

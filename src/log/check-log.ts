@@ -1,9 +1,23 @@
-import { readdirSync, readFileSync, statSync } from 'node:fs';
-import { join, relative } from 'node:path';
-import { parseRecord } from '../spec/parse-record.ts';
-import { evaluateBlock } from './evaluate-block.ts';
-import type { LogResult, RecordResult } from './result-types.ts';
+import { readdirSync, statSync } from 'node:fs';
+import { join } from 'node:path';
+import { pathToFileURL } from 'node:url';
+import type { BlockEntry } from '../spec/types.ts';
+import type { BlockTask } from './evaluate-task.ts';
+import { inputHash } from './input-hash.ts';
+import { loadLogConfig, type LogConfig } from './log-config.ts';
+import { readRecord, recordResult } from './read-record.ts';
+import { openResultCache, type SpecEntry } from './result-cache.ts';
+import type { BlockResult, LogResult } from './result-types.ts';
+import { TOOL_ROOT } from './tool-root.ts';
 import { TOOL_VERSION } from './tool-version.ts';
+import { createWorkerPool, type TaskOutcome } from './worker-pool.ts';
+
+// The workers do the evaluating. This thread loads the evaluator only when a block that did not
+// parse or did not finish needs a result made here: its expression library alone takes about a
+// second to load, which a cached run should not pay.
+const TASK_MODULE = pathToFileURL(join(TOOL_ROOT, 'src', 'log', 'evaluate-task.ts'));
+// The expression library the evaluator is built on; workers load it ahead of the TypeScript loader.
+const PRELOAD = ['mathjs'];
 
 /** The Markdown files named, with folders searched recursively, in a stable order. */
 export function collectRecordFiles(paths: string[]): { files: string[]; missing: string[] } {
@@ -30,27 +44,118 @@ export function collectRecordFiles(paths: string[]): { files: string[]; missing:
   return { files: [...new Set(files)], missing };
 }
 
-/** Parses and evaluates one record file; a block that fails never stops the others. */
-export function checkRecord(file: string, cwd = process.cwd()): RecordResult {
-  const name = relative(cwd, file) || file;
-  let text: string;
-  try {
-    text = readFileSync(file, 'utf8');
-  } catch (error) {
-    const reason = error instanceof Error ? error.message : String(error);
-    const frontMatter = { title: null, author: null, date: null, tags: [] };
-    return { file: name, title: null, frontMatter, problems: [{ file: name, line: 1, block: null, field: null, message: `cannot read the record: ${reason}` }], blocks: [] };
+export interface CheckLogOptions {
+  /** The log root: where groundwork.config.json is read, and what record names are relative to (default: the working folder). */
+  root?: string;
+  /** Evaluate every block even when a stored result exists; the new results are stored. */
+  recompute?: boolean;
+  /** Use this configuration instead of reading the root's. */
+  config?: LogConfig;
+}
+
+export interface CheckStats {
+  blocks: number;
+  /** Blocks evaluated in this run (timed-out and over-memory ones included). */
+  evaluated: number;
+  /** Blocks whose result came from the cache. */
+  cached: number;
+  /** Damaged cache entries found, removed and recomputed. */
+  corrupt: number;
+  timedOut: number;
+  overMemory: number;
+  /** Results that could not be stored in the cache (read-only or full disk). */
+  writeErrors: number;
+  /** The most workers the run may use (the configured number). */
+  workers: number;
+}
+
+/**
+ * Checks every record of a log: records are parsed here, blocks with a stored result are taken from
+ * the cache, the rest are evaluated in a pool of worker threads under the configured limits and then
+ * stored. Records and blocks come out in the order of `files` and of the blocks in each file, however
+ * the workers finish.
+ */
+export async function checkLog(files: string[], options: CheckLogOptions = {}): Promise<{ log: LogResult; stats: CheckStats }> {
+  const root = options.root ?? process.cwd();
+  const config = options.config ?? loadLogConfig(root);
+  const cache = openResultCache(config.cacheFolder);
+  const read = files.map((file) => readRecord(file, root));
+  const results: BlockResult[][] = read.map((r) => (r.kind === 'parsed' ? new Array(r.spec.blocks.length) : []));
+  const misses: Array<{ record: number; block: number; file: string; entry: SpecEntry }> = [];
+  const unparsed: Array<{ record: number; block: number; file: string; entry: BlockEntry }> = [];
+  read.forEach((r, record) => {
+    if (r.kind === 'unreadable') return;
+    r.spec.blocks.forEach((entry, block) => {
+      const place = { record, block, file: r.spec.file };
+      if (entry.kind === 'invalid') unparsed.push({ ...place, entry });
+      else {
+        const stored = options.recompute ? null : cache.get(r.spec.file, entry);
+        if (stored) results[record][block] = stored;
+        else misses.push({ ...place, entry });
+      }
+    });
+  });
+
+  // Blocks that did not parse only need their problems turned into a result, which is cheap.
+  let evaluateBlock: typeof import('./evaluate-block.ts').evaluateBlock | null = null;
+  const evaluator = async () => (evaluateBlock ??= (await import('./evaluate-block.ts')).evaluateBlock);
+  for (const { record, block, file, entry } of unparsed) results[record][block] = (await evaluator())(file, entry);
+
+  let timedOut = 0;
+  let overMemory = 0;
+  if (misses.length > 0) {
+    const pool = createWorkerPool<BlockTask, BlockResult>({
+      taskModule: TASK_MODULE,
+      preload: PRELOAD,
+      workers: config.workers,
+      timeLimitMs: config.timeLimitSeconds * 1000,
+      memoryLimitMb: config.memoryLimitMb,
+    });
+    try {
+      await Promise.all(
+        misses.map(async ({ record, block, file, entry }) => {
+          const outcome = await pool.run({ file, entry });
+          if (outcome.kind === 'done') results[record][block] = cache.put(entry, outcome.value);
+          else {
+            if (outcome.kind === 'timed-out') timedOut++;
+            if (outcome.kind === 'out-of-memory') overMemory++;
+            results[record][block] = unfinishedBlock(await evaluator(), file, entry, outcome);
+          }
+        }),
+      );
+    } finally {
+      await pool.close();
+    }
   }
-  const record = parseRecord(name, text);
+
+  const records = read.map((r, index) => (r.kind === 'unreadable' ? r.result : recordResult(r.spec, results[index])));
+  const blocks = results.reduce((n, list) => n + list.length, 0);
   return {
-    file: name,
-    title: record.frontMatter.title,
-    frontMatter: record.frontMatter,
-    problems: record.problems,
-    blocks: record.blocks.map((entry) => evaluateBlock(name, entry)),
+    log: { tool: { name: 'groundwork', version: TOOL_VERSION }, records },
+    stats: { blocks, evaluated: blocks - cache.stats.hits, cached: cache.stats.hits, corrupt: cache.stats.corrupt, timedOut, overMemory, writeErrors: cache.stats.writeErrors, workers: config.workers },
   };
 }
 
-export function checkLog(files: string[]): LogResult {
-  return { tool: { name: 'groundwork', version: TOOL_VERSION }, records: files.map((file) => checkRecord(file)) };
+/**
+ * The result of a block whose evaluation did not finish. Over time it is `unsettled` (a faster
+ * machine or a larger limit may settle it); over the memory cap or crashed it is `invalid`. Neither
+ * is stored, since both depend on the machine and the limits rather than on the block alone.
+ */
+export function unfinishedBlock(
+  evaluate: typeof import('./evaluate-block.ts').evaluateBlock,
+  file: string,
+  entry: SpecEntry,
+  outcome: Exclude<TaskOutcome<BlockResult>, { kind: 'done' }>,
+): BlockResult {
+  const { spec } = entry;
+  const reason =
+    outcome.kind === 'timed-out'
+      ? `the evaluation ran over the time limit of ${outcome.limitMs / 1000} s (timeLimitSeconds in groundwork.config.json) and was stopped`
+      : outcome.kind === 'out-of-memory'
+        ? `the evaluation needed more than the memory cap of ${outcome.limitMb} MB (memoryLimitMb in groundwork.config.json) and was stopped`
+        : `the evaluation stopped: ${outcome.message}`;
+  // An entry that could not be evaluated is what the evaluator turns into an empty `invalid` result.
+  const invalid = evaluate(file, { kind: 'invalid', id: spec.id, line: spec.line, caption: spec.caption, problems: [{ file, line: spec.line, block: spec.id, field: null, message: reason }], source: entry.source });
+  const result = { ...invalid, inputHash: inputHash(spec) };
+  return outcome.kind === 'timed-out' ? { ...result, status: 'unsettled', message: reason, problems: [] } : result;
 }

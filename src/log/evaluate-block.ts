@@ -1,9 +1,11 @@
 import { performance } from 'node:perf_hooks';
+import { evaluateBasisProblem } from '../engine/evaluate-basis.ts';
 import { evaluateProblem, type EngineResult } from '../engine/evaluate-problem.ts';
-import type { VariationalProblem } from '../engine/problem.ts';
+import type { ProblemBase } from '../engine/problem.ts';
 import { compileBlock } from '../expr/compile-block.ts';
 import type { BlockEntry, BlockSpec, SpecProblem } from '../spec/types.ts';
 import { inputHash } from './input-hash.ts';
+import { inBlockUnits } from './units-back.ts';
 import type { BlockInputs, BlockResult } from './result-types.ts';
 
 const ENERGY_UNIT = 'hartree';
@@ -21,24 +23,25 @@ export function evaluateBlock(file: string, entry: BlockEntry): BlockResult {
     const problems = compiled.problems.map((p) => ({ file, line: p.line, block: spec.id, field: p.field, message: p.message }));
     return invalidBlock(spec.id, spec.line, spec.caption, problems, hash, started);
   }
-  const problem: VariationalProblem = {
+  const base: ProblemBase = {
     space: spec.space,
     box: spec.box,
     angularMomentum: spec.angularMomentum,
     mass: spec.mass,
     potential: compiled.block.potential,
     potentialSwitches: compiled.block.potentialSwitches,
-    trial: compiled.block.trial,
     parameters: spec.varied,
     reference: {
       solve: spec.reference.solve,
       published: spec.reference.energy ? { ...spec.reference.energy, source: spec.reference.source ?? '' } : null,
     },
     claim: spec.claim,
+    plots: spec.report.plots,
   };
   let engine: EngineResult;
   try {
-    engine = evaluateProblem(problem);
+    const { trial, basis } = compiled.block;
+    engine = trial ? evaluateProblem({ ...base, trial }) : evaluateBasisProblem({ ...base, basis: basis!, states: spec.states });
   } catch (error) {
     const reason = error instanceof Error ? error.message : String(error);
     const problems = [{ file, line: spec.line, block: spec.id, field: null, message: `the evaluation failed: ${reason}` }];
@@ -51,12 +54,15 @@ export function evaluateBlock(file: string, entry: BlockEntry): BlockResult {
     angularMomentum: spec.angularMomentum,
     mass: spec.mass,
     coordinate: trees.coordinate,
+    lengthUnit: 'bohr',
     potentialTex: trees.potential.toTex(),
-    trialTex: trees.trial.toTex(),
+    trialTex: trees.trial?.toTex() ?? null,
+    basisTex: trees.basis?.map((tree) => tree.toTex()) ?? null,
     constants: spec.constants,
     ranges: spec.varied.map(({ name, start, min, max }) => ({ name, start, min, max })),
   };
-  return toBlockResult(file, spec, inputs, engine, hash, started);
+  const result = toBlockResult(file, spec, inputs, engine, hash, started);
+  return spec.quantity ? inBlockUnits(result, spec.quantity) : result;
 }
 
 function toBlockResult(file: string, spec: BlockSpec, inputs: BlockInputs, engine: EngineResult, hash: string, started: number): BlockResult {
@@ -68,7 +74,7 @@ function toBlockResult(file: string, spec: BlockSpec, inputs: BlockInputs, engin
   const relative = (reference: number | null) => (engine.energy === null || reference === null ? null : (engine.energy - reference) / Math.abs(reference));
   // Invalid results carry the failing check's location: the trial field of the block.
   const problems: SpecProblem[] =
-    engine.status === 'invalid' ? engine.checks.filter((c) => !c.pass).map((c) => ({ file, line: spec.trial.line, block: spec.id, field: 'trial', message: c.detail })) : [];
+    engine.status === 'invalid' ? engine.checks.filter((c) => !c.pass).map((c) => ({ file, line: (spec.trial ?? spec.basis![0]).line, block: spec.id, field: spec.trial ? 'trial' : 'basis', message: c.detail })) : [];
   return {
     id: spec.id,
     line: spec.line,
@@ -81,7 +87,8 @@ function toBlockResult(file: string, spec: BlockSpec, inputs: BlockInputs, engin
     parameters,
     variance: engine.variance?.value ?? null,
     varianceNote: engine.variance?.note ?? null,
-    states: engine.energy === null ? [] : [{ energy: engine.energy }],
+    states: engine.states.map((state) => ({ energy: state.energy, reference: state.reference, errorEstimate: state.errorEstimate })),
+    basis: engine.basis,
     components: engine.components,
     reference:
       grid || published
@@ -101,6 +108,7 @@ function toBlockResult(file: string, spec: BlockSpec, inputs: BlockInputs, engin
       ? { energy: spec.claim.energy?.value ?? null, tolerance: spec.claim.energy?.tolerance ?? null, parameters: spec.claim.parameters }
       : null,
     checks: engine.checks.map(({ name, pass, detail }) => ({ name, pass, detail })),
+    plots: engine.plots,
     diagnostics: {
       energyError: engine.energyError,
       optimiser: engine.optimiser
@@ -126,9 +134,11 @@ function toBlockResult(file: string, spec: BlockSpec, inputs: BlockInputs, engin
         : null,
       energyEvaluations: engine.counts.energyEvaluations,
       trialEvaluations: engine.counts.trialEvaluations,
+      plotEvaluations: engine.plots?.evaluations ?? 0,
       variationalMs: engine.timings.variationalMs,
       referenceMs: engine.timings.referenceMs,
     },
+    quantity: null,
     inputHash: hash,
     timeMs: performance.now() - started,
   };
@@ -148,6 +158,7 @@ function invalidBlock(id: string, line: number, caption: string | null, problems
     variance: null,
     varianceNote: null,
     states: [],
+    basis: null,
     components: null,
     reference: null,
     errors: { vsGrid: null, vsPublished: null },
@@ -156,7 +167,9 @@ function invalidBlock(id: string, line: number, caption: string | null, problems
     virial: null,
     claim: null,
     checks: [],
+    plots: null,
     diagnostics: null,
+    quantity: null,
     inputHash: hash,
     timeMs: performance.now() - started,
   };

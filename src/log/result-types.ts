@@ -1,5 +1,7 @@
+import type { BasisDiagnostics } from '../engine/evaluate-problem.ts';
+import type { PlotData } from '../engine/plot-data.ts';
 import type { Check, Status } from '../engine/status.ts';
-import type { FrontMatter, SpecProblem } from '../spec/types.ts';
+import type { FrontMatter, QuantityMode, SpecProblem } from '../spec/types.ts';
 
 /** The machine-readable result of RECORD-FORMAT.md: what `groundwork check --json` prints and the pages render. */
 
@@ -15,8 +17,13 @@ export interface BlockInputs {
   angularMomentum: number;
   mass: number;
   coordinate: 'x' | 'r';
+  /** The unit lengths are given in: bohr in atomic units, the block's own in quantity mode. */
+  lengthUnit: string;
   potentialTex: string;
-  trialTex: string;
+  /** The trial typeset, or null for a basis block. */
+  trialTex: string | null;
+  /** The basis functions typeset, or null for a trial block. */
+  basisTex: string[] | null;
   constants: Record<string, number>;
   ranges: Array<{ name: string; start: number; min: number; max: number }>;
 }
@@ -34,7 +41,10 @@ export interface BlockResult {
   parameters: Record<string, Valued & { varied: boolean }>;
   variance: number | null;
   varianceNote: string | null;
-  states: Array<{ energy: number }>;
+  /** Every level reported, lowest first; `reference` is the grid level of the same index. */
+  states: Array<{ energy: number; reference: number | null; errorEstimate: number }>;
+  /** The linear method's overlap diagnostics (null for a single trial). */
+  basis: BasisDiagnostics | null;
   components: { kinetic: number; potential: number; norm: number } | null;
   reference: {
     energy: number | null;
@@ -49,15 +59,20 @@ export interface BlockResult {
   virial: { exponent: number; ratio: number } | null;
   claim: { energy: number | null; tolerance: number | null; parameters: Record<string, { value: number; tolerance: number }> } | null;
   checks: Check[];
+  /** Samples behind the scan and density plots (RECORD-FORMAT `report.plots`). */
+  plots: PlotData | null;
   diagnostics: {
     energyError: number | null;
     optimiser: { method: string; iterations: number; evaluations: number; converged: boolean; activeLimits: Array<'min' | 'max' | null>; curvature: number[][] } | null;
     grid: { size: number; elements: number; elementOrder: number; refinements: number; domain: [number, number]; errorEstimate: number[]; converged: boolean } | null;
     energyEvaluations: number;
     trialEvaluations: number;
+    plotEvaluations: number;
     variationalMs: number;
     referenceMs: number;
   } | null;
+  /** Quantity mode: the units the numbers above are stated in and the physical constants behind them; null in atomic units. */
+  quantity: QuantityMode | null;
   inputHash: string;
   timeMs: number;
 }

@@ -1,0 +1,26 @@
+import { evaluateBlock } from './evaluate-block.ts';
+import { readRecord, recordResult } from './read-record.ts';
+import type { ResultCache } from './result-cache.ts';
+import type { RecordResult } from './result-types.ts';
+
+export interface CheckRecordOptions {
+  /** Folder that record names are given relative to (default: the working folder). */
+  cwd?: string;
+  /** Where results are looked up and stored; without one every block is evaluated. */
+  cache?: ResultCache | null;
+}
+
+/**
+ * One record, synchronously and in this thread, for callers that cannot wait (the remark plugin).
+ * It shares the cache with the parallel `checkLog`, so a page built after a check evaluates nothing.
+ */
+export function checkRecord(file: string, options: CheckRecordOptions = {}): RecordResult {
+  const read = readRecord(file, options.cwd ?? process.cwd());
+  if (read.kind === 'unreadable') return read.result;
+  const { spec } = read;
+  const cache = options.cache ?? null;
+  return recordResult(
+    spec,
+    spec.blocks.map((entry) => (entry.kind === 'spec' && cache ? (cache.get(spec.file, entry) ?? cache.put(entry, evaluateBlock(spec.file, entry))) : evaluateBlock(spec.file, entry))),
+  );
+}
