@@ -1,14 +1,12 @@
 // @ts-check
 import { defineConfig } from 'astro/config';
-import rehypeKatex from 'rehype-katex';
-import remarkMath from 'remark-math';
-import remarkVariational from './src/remark/remark-variational.ts';
+import groundwork from './src/site/integration.ts';
 
+// Record pages are rendered by groundwork's own unified pipeline (src/render/record-html.ts), which evaluates
+// the spec blocks and sanitises the prose; Astro's collection lists the records and checks their front matter.
 export default defineConfig({
   output: 'static',
   outDir: './dist',
-  markdown: {
-    remarkPlugins: [remarkMath, [remarkVariational, { root: process.cwd() }]],
-    rehypePlugins: [rehypeKatex],
-  },
+  markdown: { syntaxHighlight: false },
+  integrations: [groundwork({ records: 'content/records' })],
 });

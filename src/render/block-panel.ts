@@ -1,6 +1,9 @@
 import katex from 'katex';
+import type { LastCommit } from '../log/git-audit.ts';
+import type { Provenance } from '../log/provenance.ts';
 import type { BlockResult } from '../log/result-types.ts';
 import { escapeHtml, formatNumber } from './html.ts';
+import { renderPlots } from './plots.ts';
 
 const tex = (source: string, display = false) => katex.renderToString(source, { displayMode: display, throwOnError: false, output: 'htmlAndMathml' });
 
@@ -12,8 +15,15 @@ const STATUS_WORDS: Record<BlockResult['status'], string> = {
   invalid: 'invalid',
 };
 
+/** What a panel's audit trail says about where the block came from and what computed it. */
+export interface PanelContext {
+  file: string;
+  git: LastCommit | null;
+  provenance: Provenance;
+}
+
 /** The result panel that stands in a record's page where its spec block was written. */
-export function renderBlockPanel(result: BlockResult, file: string): string {
+export function renderBlockPanel(result: BlockResult, context: PanelContext): string {
   const parts = [
     `<section class="gw-panel gw-${result.status}" id="block-${escapeHtml(result.id)}" data-status="${result.status}">`,
     `<header><span class="gw-status">${escapeHtml(STATUS_WORDS[result.status])}</span> <code>${escapeHtml(result.id)}</code>${result.caption ? ` <span class="gw-caption">${escapeHtml(result.caption)}</span>` : ''}</header>`,
@@ -26,8 +36,17 @@ export function renderBlockPanel(result: BlockResult, file: string): string {
   }
   if (result.inputs) parts.push(renderInputs(result));
   if (result.energy) parts.push(renderResults(result));
-  if (result.checks.length > 0) parts.push(renderChecks(result));
-  parts.push(renderAudit(result, file));
+  const plots = renderPlots(result, {
+    energy: result.energy?.unit ?? 'hartree',
+    length: result.inputs?.lengthUnit ?? 'bohr',
+    parameters: Object.fromEntries(Object.entries(result.parameters).map(([name, p]) => [name, p.unit])),
+  });
+  if (plots.length > 0) parts.push(`<div class="gw-plots">${plots.join('\n')}</div>`);
+  if (result.checks.length > 0) {
+    if (result.quantity) parts.push(`<p class="gw-note">Results are stated in ${escapeHtml(result.quantity.energy.unit)} and ${escapeHtml(result.quantity.length.unit)}; the checks below computed in atomic units (hartree, bohr).</p>`);
+    parts.push(renderChecks(result));
+  }
+  parts.push(renderAudit(result, context));
   parts.push('</section>');
   return parts.join('\n');
 }
@@ -39,10 +58,14 @@ function renderInputs(result: BlockResult): string {
   const where = inputs.box ? `${q} \\in [${inputs.box[0]}, ${inputs.box[1]}]` : inputs.space === 'line' ? `${q} \\in \\mathbb{R}` : `${q} \\ge 0`;
   const rows = [
     `<div>${tex(`H = ${kinetic} + ${inputs.potentialTex}, \\quad ${where}, \\quad m = ${inputs.mass}`, true)}</div>`,
-    `<div>${tex(`${inputs.space === 'radial' ? 'R' : '\\psi'}(${q}) = ${inputs.trialTex}`, true)}</div>`,
+    inputs.trialTex !== null
+      ? `<div>${tex(`${inputs.space === 'radial' ? 'R' : '\\psi'}(${q}) = ${inputs.trialTex}`, true)}</div>`
+      : `<div>Basis (linear variational method, ${result.states.length} level${result.states.length === 1 ? '' : 's'} reported):${tex(`${inputs.space === 'radial' ? 'R' : '\\psi'}(${q}) = \\sum_i c_i \\phi_i(${q})`, true)}<ol start="0" class="gw-basis">${(inputs.basisTex ?? []).map((b) => `<li>${tex(`\\phi = ${b}`)}</li>`).join('')}</ol></div>`,
   ];
-  const ranges = inputs.ranges.map((r) => tex(`${r.name} \\in [${r.min}, ${r.max}],\\ \\text{start } ${r.start}`)).join('; ');
-  const constants = Object.entries(inputs.constants).map(([k, v]) => tex(`${k} = ${v}`)).join(', ');
+  // Units stay outside the math: they are written as mathjs spells them (nm^-1), not as TeX.
+  const unitOf = (name: string) => (result.parameters[name]?.unit ? ` ${escapeHtml(result.parameters[name].unit!)}` : '');
+  const ranges = inputs.ranges.map((r) => `${tex(`${r.name} \\in [${formatNumber(r.min, 8)}, ${formatNumber(r.max, 8)}]`)}${unitOf(r.name)}, start ${formatNumber(r.start, 8)}`).join('; ');
+  const constants = Object.entries(inputs.constants).map(([k, v]) => tex(`${k} = ${formatNumber(v, 10)}`)).join(', ');
   if (ranges) rows.push(`<p>Varied: ${ranges}</p>`);
   if (constants) rows.push(`<p>Constants: ${constants}</p>`);
   return `<div class="gw-inputs">${rows.join('\n')}</div>`;
@@ -52,7 +75,7 @@ function renderResults(result: BlockResult): string {
   const unit = result.energy!.unit ?? '';
   const row = (label: string, value: string) => `<tr><th scope="row">${label}</th><td>${value}</td></tr>`;
   const rows = [
-    ...Object.entries(result.parameters).map(([name, p]) => row(`${tex(name)} ${p.varied ? 'at the optimum' : '(fixed)'}`, formatNumber(p.value))),
+    ...Object.entries(result.parameters).map(([name, p]) => row(`${tex(name)} ${p.varied ? 'at the optimum' : '(fixed)'}`, `${formatNumber(p.value)}${p.unit ? ` ${escapeHtml(p.unit)}` : ''}`)),
     row(tex('\\langle T\\rangle'), formatNumber(result.components?.kinetic)),
     row(tex('\\langle V\\rangle'), formatNumber(result.components?.potential)),
     row(`${tex('E = \\langle H\\rangle')} (upper bound)`, `<strong>${formatNumber(result.energy!.value)}</strong> ${unit}`),
@@ -64,6 +87,13 @@ function renderResults(result: BlockResult): string {
     rows.push(row(`reference (${result.reference.method})`, `${formatNumber(result.reference.energy)}${result.reference.excited !== null ? `; next level ${formatNumber(result.reference.excited)}` : ''}`));
     if (result.reference.published) rows.push(row('published', `${formatNumber(result.reference.published.energy)} — ${escapeHtml(result.reference.published.source)}`));
   }
+  if (result.states.length > 1) {
+    result.states.forEach((state, k) => {
+      const error = state.reference === null ? '' : `; grid ${formatNumber(state.reference)} (relative error ${formatNumber((state.energy - state.reference) / Math.abs(state.reference), 3)})`;
+      rows.push(row(`level ${tex(`E_{${k}}`)} (upper bound)`, `${formatNumber(state.energy)}${error}`));
+    });
+  }
+  if (result.basis) rows.push(row('overlap matrix', `${result.basis.functions} functions, ${result.basis.kept} kept; condition number ${formatNumber(result.basis.conditionNumber, 3)}`));
   if (result.errors.vsGrid !== null) rows.push(row('relative error against the grid', formatNumber(result.errors.vsGrid, 3)));
   if (result.errors.vsPublished !== null) rows.push(row('relative error against the published value', formatNumber(result.errors.vsPublished, 3)));
   if (result.overlap !== null) rows.push(row('overlap with the grid ground state', formatNumber(result.overlap, 8)));
@@ -77,17 +107,28 @@ function renderChecks(result: BlockResult): string {
   return `<ul class="gw-checks">${items.join('')}</ul>`;
 }
 
-function renderAudit(result: BlockResult, file: string): string {
+function renderAudit(result: BlockResult, context: PanelContext): string {
   const d = result.diagnostics;
+  const { git, provenance } = context;
   const items = [
     `input hash <code>${escapeHtml(result.inputHash)}</code>`,
-    `record <code>${escapeHtml(file)}</code>, line ${result.line}`,
-    `time ${formatNumber(result.timeMs, 3)} ms`,
+    `record <code>${escapeHtml(context.file)}</code>, line ${result.line}`,
+    git
+      ? `last commit <code>${escapeHtml(git.hash.slice(0, 12))}</code> by ${escapeHtml(git.author)}, ${escapeHtml(git.date)}${git.modified ? ' (the file has uncommitted changes since)' : ''}`
+      : 'last commit: not in git, or not committed yet',
+    `groundwork ${escapeHtml(provenance.tool)} on Node ${escapeHtml(provenance.node)}; ${Object.entries(provenance.dependencies).map(([name, version]) => `${escapeHtml(name)} ${escapeHtml(version)}`).join(', ')}`,
+    `settings: ${Object.entries(provenance.settings).map(([name, value]) => `${escapeHtml(name)} ${formatNumber(value)}`).join(', ')}`,
+    `time ${formatNumber(result.timeMs, 3)} ms${d ? ` (variational ${formatNumber(d.variationalMs, 3)} ms, grid reference ${formatNumber(d.referenceMs, 3)} ms)` : ''}`,
   ];
+  if (result.quantity) {
+    const q = result.quantity;
+    items.push(`quantity mode: energies in ${escapeHtml(q.energy.unit)} (${escapeHtml(q.energy.definition)}), lengths in ${escapeHtml(q.length.unit)} (1 bohr = ${formatNumber(q.length.perBohr)} ${escapeHtml(q.length.unit)})`);
+    items.push(`physical constants: ${q.constantsUsed.map((c) => `${escapeHtml(c.name)} = ${formatNumber(c.value)} ${escapeHtml(c.unit)}`).join(', ')} (${escapeHtml([...new Set(q.constantsUsed.map((c) => c.source))].join('; '))})`);
+  }
   if (d) {
-    items.push(`energy evaluations ${d.energyEvaluations}, trial evaluations ${d.trialEvaluations}`);
+    items.push(`energy evaluations ${d.energyEvaluations}, trial evaluations ${d.trialEvaluations}, plot evaluations ${d.plotEvaluations}`);
     if (d.optimiser) items.push(`optimiser ${escapeHtml(d.optimiser.method)}: ${d.optimiser.iterations} iterations, ${d.optimiser.evaluations} evaluations, converged ${d.optimiser.converged}`);
-    if (d.grid) items.push(`grid: ${d.grid.size} points, ${d.grid.elements} elements of order ${d.grid.elementOrder}, ${d.grid.refinements} refinements, domain [${formatNumber(d.grid.domain[0], 6)}, ${formatNumber(d.grid.domain[1], 6)}]`);
+    if (d.grid) items.push(`grid: ${d.grid.size} points, ${d.grid.elements} elements of order ${d.grid.elementOrder}, ${d.grid.refinements} refinements, domain [${formatNumber(d.grid.domain[0], 6)}, ${formatNumber(d.grid.domain[1], 6)}], last change ${d.grid.errorEstimate.map((e) => formatNumber(e, 2)).join(', ')}`);
     if (d.energyError !== null) items.push(`quadrature error estimate of E ${formatNumber(d.energyError, 3)}`);
   }
   return `<details class="gw-audit"><summary>Audit trail</summary><ul>${items.map((i) => `<li>${i}</li>`).join('')}</ul></details>`;

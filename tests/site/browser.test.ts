@@ -6,6 +6,9 @@ import type { AddressInfo } from 'node:net';
 import { extname, join } from 'node:path';
 import { chromium, type Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { provenance } from '../../src/log/provenance.ts';
+import { recordHtml } from '../../src/render/record-html.ts';
+import { checkRecordText, HOSTILE } from '../render/record-fixture.ts';
 
 const ROOT = new URL('../..', import.meta.url).pathname;
 const DIST = join(ROOT, 'dist');
@@ -46,14 +49,30 @@ describe.runIf(run)('the demo log in a real browser', () => {
     server?.close();
   });
 
-  it('opens the index, follows a record, and finds typeset math, statuses and no console errors', async () => {
+  it('opens the index, filters and orders it, follows a record, and finds math, plots, statuses and no console errors', async () => {
     const page = await browser.newPage();
     const errors: string[] = [];
     page.on('console', (m) => m.type() === 'error' && errors.push(m.text()));
     page.on('pageerror', (e) => errors.push(e.message));
     await page.goto(base + '/');
-    // Every demo block appears in the index with its status (the demo log has six blocks).
-    expect(await page.locator('.gw-block-list li').count()).toBe(6);
+    // The counts at the top add up to the blocks listed, and the demo log shows the three outcomes a reviewer meets.
+    const listed = await page.locator('.gw-block-list li').count();
+    const counted = await page.locator('.gw-count [data-count], [data-count]').evaluateAll((nodes) => nodes.reduce((sum, n) => sum + Number(n.querySelector('strong')?.textContent ?? 0), 0));
+    expect(counted).toBe(listed);
+    for (const status of ['confirmed', 'disputed', 'unsettled']) expect(await page.locator(`.gw-block-list li[data-status="${status}"]`).count()).toBeGreaterThan(0);
+
+    // Filtering by status keeps exactly the records with such a block; ordering puts the oldest date first.
+    await page.selectOption('select[name="status"]', 'disputed');
+    const disputedRows = page.locator('table.gw-index tbody tr:not([hidden])');
+    expect(await disputedRows.count()).toBe(await page.locator('table.gw-index tbody tr[data-statuses~="disputed"]').count());
+    await page.selectOption('select[name="status"]', '');
+    await page.selectOption('select[name="tag"]', 'radial');
+    expect(await page.locator('table.gw-index tbody tr:not([hidden])').count()).toBe(await page.locator('table.gw-index tbody tr[data-tags~="radial"]').count());
+    await page.selectOption('select[name="tag"]', '');
+    await page.selectOption('select[name="order"]', 'oldest');
+    const dates = await page.locator('table.gw-index tbody tr').evaluateAll((rows) => rows.map((r) => (r as HTMLElement).dataset.date!));
+    expect(dates).toEqual([...dates].sort());
+
     await page.getByRole('link', { name: /Donor D-7/ }).click();
     await page.waitForURL(/records\/2026-11-donor-d7-radial/);
     expect(await page.locator('.gw-panel').count()).toBe(2);
@@ -62,6 +81,48 @@ describe.runIf(run)('the demo log in a real browser', () => {
     expect(await page.locator('.katex').count()).toBeGreaterThan(10);
     // The exact 1s level -1/2 hartree (any quantum mechanics textbook) is printed in the results table.
     expect(await page.locator('#block-d7-slater .gw-results').innerText()).toContain('-0.5');
+    // Each panel has its scan (one varied parameter) and density plots as inline SVG with labelled axes.
+    expect(await page.locator('#block-d7-slater .gw-plots svg').count()).toBe(2);
+    const labels = await page.locator('#block-d7-slater .gw-plots svg text').allTextContents();
+    expect(labels.some((t) => t.includes('hartree'))).toBe(true);
+    expect(labels.some((t) => t.includes('bohr'))).toBe(true);
+    // The audit trail is folded by default and names the input hash.
+    const audit = page.locator('#block-d7-slater details.gw-audit');
+    expect(await audit.getAttribute('open')).toBeNull();
+    expect(await audit.innerText()).not.toContain('input hash');
+    await audit.locator('summary').click();
+    expect(await audit.innerText()).toContain('input hash sha256:');
     expect(errors).toEqual([]);
   }, 60_000);
+
+  it('writes each record\'s JSON and the whole-log CSV next to the pages', async () => {
+    const json = await (await fetch(`${base}/records/2026-11-donor-d7-radial.json`)).json();
+    expect(json.blocks.map((b: { id: string }) => b.id)).toEqual(['d7-slater', 'd7-gauss']);
+    // The exact hydrogen-like ground level is -1/2 hartree (any quantum mechanics textbook).
+    expect(json.blocks[0].energy.value).toBeCloseTo(-0.5, 9);
+    const csv = await (await fetch(`${base}/log.csv`)).text();
+    const lines = csv.trim().split('\r\n');
+    expect(lines[0].split(',').slice(0, 7)).toEqual(['file', 'title', 'author', 'date', 'block', 'line', 'status']);
+    const index = await (await fetch(`${base}/`)).text();
+    expect(lines.length - 1).toBe(index.match(/<li data-status=/g)?.length);
+  });
+
+  it('runs no script from a hostile record', async () => {
+    const record = checkRecordText('content/records/hostile.md', HOSTILE);
+    const body = recordHtml(record.file, HOSTILE, record, { file: record.file, git: null, provenance: provenance() }).html;
+    const page = await browser.newPage();
+    const dialogs: string[] = [];
+    page.on('dialog', (d) => {
+      dialogs.push(d.message());
+      void d.dismiss();
+    });
+    await page.setContent(`<!doctype html><html><head><meta charset="utf-8"></head><body>${body}</body></html>`);
+    await page.getByText('click me').click();
+    await page.getByText('styled').click();
+    await page.locator('.gw-caption').hover();
+    expect(await page.evaluate(() => (window as unknown as { __pwned?: string }).__pwned)).toBeUndefined();
+    expect(dialogs).toEqual([]);
+    // The page itself works: the panel is there with its plots.
+    expect(await page.locator('.gw-panel[data-status="confirmed"] .gw-plots svg').count()).toBeGreaterThan(0);
+  });
 });
