@@ -1,4 +1,4 @@
-import { readFileSync } from 'node:fs';
+import { existsSync, readFileSync } from 'node:fs';
 import os from 'node:os';
 import { collectRecordFiles } from '../src/log/check-log.ts';
 import { evaluateBlock } from '../src/log/evaluate-block.ts';
@@ -13,7 +13,9 @@ const WARM_UP = 2;
 const RUNS = 7;
 const median = (values: number[]) => [...values].sort((a, b) => a - b)[Math.floor(values.length / 2)];
 
-const folder = process.argv[2] ?? new URL('../../shared/problems', import.meta.url).pathname;
+// The project's shared set when it sits beside the repository, else the copy the tests use.
+const shared = new URL('../../shared/problems', import.meta.url).pathname;
+const folder = process.argv[2] ?? (existsSync(shared) ? shared : new URL('../tests/fixtures/problems', import.meta.url).pathname);
 const problems: Record<string, unknown> = {};
 for (const file of collectRecordFiles([folder]).files) {
   const record = parseRecord(file, readFileSync(file, 'utf8'));
