@@ -1,13 +1,17 @@
+import { blockKey } from './build-results.ts';
 import { evaluateBlock } from './evaluate-block.ts';
+import { inputHash } from './input-hash.ts';
 import { readRecord, recordResult } from './read-record.ts';
 import type { ResultCache } from './result-cache.ts';
-import type { RecordResult } from './result-types.ts';
+import type { BlockResult, RecordResult } from './result-types.ts';
 
 export interface CheckRecordOptions {
   /** Folder that record names are given relative to (default: the working folder). */
   cwd?: string;
   /** Where results are looked up and stored; without one every block is evaluated. */
   cache?: ResultCache | null;
+  /** Results of this build's parallel run (readBuildResults), taken before the cache: they include stopped blocks. */
+  known?: Map<string, BlockResult>;
 }
 
 /**
@@ -19,8 +23,14 @@ export function checkRecord(file: string, options: CheckRecordOptions = {}): Rec
   if (read.kind === 'unreadable') return read.result;
   const { spec } = read;
   const cache = options.cache ?? null;
+  const known = options.known ?? new Map<string, BlockResult>();
   return recordResult(
     spec,
-    spec.blocks.map((entry) => (entry.kind === 'spec' && cache ? (cache.get(spec.file, entry) ?? cache.put(entry, evaluateBlock(spec.file, entry))) : evaluateBlock(spec.file, entry))),
+    spec.blocks.map((entry) => {
+      if (entry.kind !== 'spec') return evaluateBlock(spec.file, entry);
+      const ran = known.get(blockKey(spec.file, entry.spec.line, inputHash(entry.spec)));
+      if (ran) return ran;
+      return cache ? (cache.get(spec.file, entry) ?? cache.put(entry, evaluateBlock(spec.file, entry))) : evaluateBlock(spec.file, entry);
+    }),
   );
 }

@@ -1,5 +1,7 @@
 import type { AstroIntegration } from 'astro';
+import { writeBuildResults } from '../log/build-results.ts';
 import { checkLog, collectRecordFiles } from '../log/check-log.ts';
+import { loadLogConfig } from '../log/log-config.ts';
 
 export interface IntegrationOptions {
   /** Folder of the records, relative to the log root. */
@@ -17,7 +19,9 @@ export default function groundwork(options: IntegrationOptions): AstroIntegratio
     hooks: {
       'astro:build:start': async ({ logger }) => {
         const { files } = collectRecordFiles([options.records]);
-        const { stats } = await checkLog(files, { root });
+        const config = loadLogConfig(root);
+        const { log, stats } = await checkLog(files, { root, config });
+        writeBuildResults(config.cacheFolder, log);
         logger.info(`${stats.blocks} blocks: ${stats.evaluated} evaluated, ${stats.cached} from cache (${stats.workers} workers)${stats.corrupt ? `, ${stats.corrupt} damaged cache entries replaced` : ''}${stats.timedOut ? `, ${stats.timedOut} over the time limit` : ''}`);
       },
     },
