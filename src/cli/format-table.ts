@@ -4,13 +4,13 @@ const num = (value: number | null | undefined, digits = 10) => (value === null |
 
 /** The plain-text summary: one row a block, then every problem with its place, then the counts by status. */
 export function formatTable(log: LogResult): string {
-  const header = ['record', 'block', 'status', 'energy', 'lower', 'reference', 'time'];
+  const header = ['record', 'block', 'status', 'energy', 'lower', 'reference', 'unit', 'time'];
   const rows: string[][] = [];
   const notes: string[] = [];
   for (const record of log.records) {
     for (const p of record.problems) notes.push(`${p.file}:${p.line} ${p.field ?? ''}: ${p.message}`);
     for (const b of record.blocks) {
-      rows.push([record.file, b.id, b.status, num(b.energy?.value), num(b.bounds.lower), num(b.reference?.energy), `${Math.round(b.timeMs)} ms`]);
+      rows.push([record.file, b.id, b.status, num(b.energy?.value), num(b.bounds.lower), num(b.reference?.energy), b.energy?.unit ?? '-', `${Math.round(b.timeMs)} ms`]);
       if (b.status !== 'confirmed') {
         if (b.problems.length > 0) for (const p of b.problems) notes.push(`${p.file}:${p.line} [${p.block}] ${p.field ?? ''}: ${p.message}`);
         else notes.push(`${record.file}:${b.line} [${b.id}] ${b.status}: ${b.message}`);
