@@ -1,17 +1,18 @@
-import { g } from './format.ts';
+import { ATOMIC_DISPLAY, g } from './format.ts';
 import type { GridLevels } from './grid-levels.ts';
 import type { MinimizeResult } from './minimize.ts';
 import type { ProblemBase } from './problem.ts';
 import { gradedCheck, type GradedCheck } from './status.ts';
 
 /** What the checks shared by the trial and the basis evaluations read from a problem. */
-export type CheckedProblem = Pick<ProblemBase, 'parameters' | 'reference' | 'claim'>;
+export type CheckedProblem = Pick<ProblemBase, 'parameters' | 'reference' | 'claim' | 'display'>;
 
 /** Converged, and not pressed against a parameter limit. */
 export function optimiserChecks(problem: CheckedProblem, optimiser: MinimizeResult): GradedCheck[] {
+  const show = problem.display ?? ATOMIC_DISPLAY;
   const active = problem.parameters.flatMap((p, i) => {
     const side = optimiser.activeLimits[i];
-    return side ? [`${p.name} sits on its ${side} ${g(side === 'min' ? p.min : p.max)}`] : [];
+    return side ? [`${p.name} sits on its ${side} ${show.parameter(p.name, side === 'min' ? p.min : p.max)}`] : [];
   });
   return [
     gradedCheck(
@@ -33,6 +34,7 @@ export function optimiserChecks(problem: CheckedProblem, optimiser: MinimizeResu
 
 /** The variational energy against the grid's ground level and the published value; the grid against the published value. */
 export function referenceChecks(problem: CheckedProblem, energy: number, tolerance: number, grid: GridLevels | null, gridError: string | null): GradedCheck[] {
+  const show = problem.display ?? ATOMIC_DISPLAY;
   const checks: GradedCheck[] = [];
   const published = problem.reference.published;
   if (problem.reference.solve) {
@@ -56,7 +58,7 @@ export function referenceChecks(problem: CheckedProblem, energy: number, toleran
         gradedCheck(
           'above-grid-reference',
           energy >= e0 - slack,
-          `E - E0(grid) = ${g(energy - e0, 4)} (must be >= -${g(slack, 2)})`,
+          `E - E0(grid) = ${show.energy(energy - e0, 4)} (must be >= -${show.energy(slack, 2)})`,
           'below-reference',
         ),
       );
@@ -67,7 +69,7 @@ export function referenceChecks(problem: CheckedProblem, energy: number, toleran
           gradedCheck(
             'grid-matches-published',
             gap <= allowed,
-            `|E0(grid) - published| = ${g(gap, 3)} (allowed ${g(allowed, 3)}: the published value's precision plus the grid's)`,
+            `|E0(grid) - published| = ${show.energy(gap, 3)} (allowed ${show.energy(allowed, 3)}: the published value's precision plus the grid's)`,
             'unsettled',
           ),
         );
@@ -80,7 +82,7 @@ export function referenceChecks(problem: CheckedProblem, energy: number, toleran
       gradedCheck(
         'above-published-reference',
         energy >= published.value - slack,
-        `E - E(published) = ${g(energy - published.value, 4)} (must be >= -${g(slack, 2)}; ${published.source})`,
+        `E - E(published) = ${show.energy(energy - published.value, 4)} (must be >= -${show.energy(slack, 2)}; ${published.source})`,
         'below-reference',
       ),
     );
@@ -90,6 +92,7 @@ export function referenceChecks(problem: CheckedProblem, energy: number, toleran
 
 /** The author's claimed energy and parameters against the recomputation. */
 export function claimChecks(problem: CheckedProblem, energy: number, best: number[]): GradedCheck[] {
+  const show = problem.display ?? ATOMIC_DISPLAY;
   const claim = problem.claim!;
   const checks: GradedCheck[] = [];
   if (claim.energy) {
@@ -98,7 +101,7 @@ export function claimChecks(problem: CheckedProblem, energy: number, best: numbe
       gradedCheck(
         'claim-energy',
         off <= claim.energy.tolerance,
-        `claimed ${g(claim.energy.value)} +/- ${g(claim.energy.tolerance, 3)}, recomputed ${g(energy)} (off by ${g(off, 3)})`,
+        `claimed ${show.energy(claim.energy.value)} +/- ${show.energy(claim.energy.tolerance, 3)}, recomputed ${show.energy(energy)} (off by ${show.energy(off, 3)})`,
         'disputed',
       ),
     );
@@ -111,7 +114,7 @@ export function claimChecks(problem: CheckedProblem, energy: number, best: numbe
       gradedCheck(
         `claim-parameter-${name}`,
         off <= claimed.tolerance,
-        `claimed ${name} = ${g(claimed.value)} +/- ${g(claimed.tolerance, 3)}, optimum ${g(value)} (off by ${g(off, 3)})`,
+        `claimed ${name} = ${show.parameter(name, claimed.value)} +/- ${show.parameter(name, claimed.tolerance, 3)}, optimum ${show.parameter(name, value)} (off by ${show.parameter(name, off, 3)})`,
         'disputed',
       ),
     );

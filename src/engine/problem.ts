@@ -1,3 +1,5 @@
+import type { ValueDisplay } from './format.ts';
+
 /** What the engine evaluates: plain numbers and compiled functions, no text, no units. */
 
 export type EngineSpace = 'line' | 'half-line' | 'radial';
@@ -37,6 +39,8 @@ export interface ProblemBase {
   claim: { energy: ToleratedValue | null; parameters: Record<string, ToleratedValue> } | null;
   /** Which plot data to sample at the optimum. */
   plots: ReadonlyArray<'scan' | 'density'>;
+  /** How check details state values (default: atomic units). */
+  display?: ValueDisplay;
 }
 
 /** A single trial function with parameters: the variational method proper. */

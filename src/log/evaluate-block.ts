@@ -5,7 +5,7 @@ import type { ProblemBase } from '../engine/problem.ts';
 import { compileBlock } from '../expr/compile-block.ts';
 import type { BlockEntry, BlockSpec, SpecProblem } from '../spec/types.ts';
 import { inputHash } from './input-hash.ts';
-import { inBlockUnits } from './units-back.ts';
+import { blockUnitsDisplay, inBlockUnits } from './units-back.ts';
 import type { BlockInputs, BlockResult } from './result-types.ts';
 
 const ENERGY_UNIT = 'hartree';
@@ -37,6 +37,7 @@ export function evaluateBlock(file: string, entry: BlockEntry): BlockResult {
     },
     claim: spec.claim,
     plots: spec.report.plots,
+    display: spec.quantity ? blockUnitsDisplay(spec.quantity) : undefined,
   };
   let engine: EngineResult;
   try {

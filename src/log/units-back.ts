@@ -1,3 +1,4 @@
+import { g, type ValueDisplay } from '../engine/format.ts';
 import type { QuantityMode } from '../spec/types.ts';
 import type { BlockResult } from './result-types.ts';
 
@@ -66,5 +67,16 @@ export function inBlockUnits(result: BlockResult, units: QuantityMode): BlockRes
       grid: diagnostics.grid && { ...diagnostics.grid, domain: [diagnostics.grid.domain[0] * L, diagnostics.grid.domain[1] * L] },
     },
     quantity: units,
+  };
+}
+
+/** Check details of a quantity-mode block in its own units (every quantity in a detail scales linearly). */
+export function blockUnitsDisplay(units: QuantityMode): ValueDisplay {
+  return {
+    energy: (value, digits) => `${g(value * units.energy.perHartree, digits)} ${units.energy.unit}`,
+    parameter: (name, value, digits) => {
+      const p = units.parameters[name];
+      return p ? `${g(value * p.perAtomic, digits)}${p.unit ? ` ${p.unit}` : ''}` : g(value, digits);
+    },
   };
 }
