@@ -3,11 +3,17 @@ import os from 'node:os';
 import { collectRecordFiles } from '../src/log/check-log.ts';
 import { evaluateBlock } from '../src/log/evaluate-block.ts';
 import { parseRecord } from '../src/spec/parse-record.ts';
+import { closureNanoseconds } from './closure-floor.ts';
 import { benchSyntheticLog } from './log200.ts';
 
 /**
  * Evaluates every benchmark record repeatedly, then checks a synthetic 200-block log through the CLI
  * cold and cached, and prints one comparable JSON document (progress on stderr).
+ * Usage: tsx bench/problems.ts [folder] [--problems-only]; the flag leaves out the synthetic log.
+ *
+ * Per single-trial problem, `floorMs` is the trial evaluations times the time of one evaluation of
+ * the compiled trial, derivative and potential (`closureNs`): the least the variational part could
+ * take with these closures. `overFloor` is variationalMs / floorMs.
  */
 const WARM_UP = 2;
 const RUNS = 7;
@@ -15,7 +21,9 @@ const median = (values: number[]) => [...values].sort((a, b) => a - b)[Math.floo
 
 // The project's shared set when it sits beside the repository, else the copy the tests use.
 const shared = new URL('../../shared/problems', import.meta.url).pathname;
-const folder = process.argv[2] ?? (existsSync(shared) ? shared : new URL('../tests/fixtures/problems', import.meta.url).pathname);
+const args = process.argv.slice(2);
+const problemsOnly = args.includes('--problems-only');
+const folder = args.find((a) => !a.startsWith('--')) ?? (existsSync(shared) ? shared : new URL('../tests/fixtures/problems', import.meta.url).pathname);
 const problems: Record<string, unknown> = {};
 for (const file of collectRecordFiles([folder]).files) {
   const record = parseRecord(file, readFileSync(file, 'utf8'));
@@ -24,12 +32,19 @@ for (const file of collectRecordFiles([folder]).files) {
     const last = runs[runs.length - 1];
     const published = last.reference?.published?.energy ?? null;
     const key = last.id;
+    const variationalMs = median(runs.map((r) => r.diagnostics?.variationalMs ?? NaN));
+    const evaluations = last.diagnostics?.trialEvaluations ?? null;
+    const closureNs = entry.kind === 'spec' && last.energy ? closureNanoseconds(entry.spec, last) : null;
+    const floorMs = closureNs !== null && evaluations !== null ? (evaluations * closureNs) / 1e6 : null;
     problems[key] = {
       status: last.status,
-      variationalMs: median(runs.map((r) => r.diagnostics?.variationalMs ?? NaN)),
+      variationalMs,
       referenceMs: median(runs.map((r) => r.diagnostics?.referenceMs ?? NaN)),
       energyEvaluations: last.diagnostics?.energyEvaluations ?? null,
-      evaluations: last.diagnostics?.trialEvaluations ?? null,
+      evaluations,
+      closureNs,
+      floorMs,
+      overFloor: floorMs !== null ? variationalMs / floorMs : null,
       gridSize: last.diagnostics?.grid?.size ?? null,
       energy: last.energy?.value ?? null,
       relError: published !== null && last.energy ? (last.energy.value - published) / Math.abs(published) : null,
@@ -38,5 +53,5 @@ for (const file of collectRecordFiles([folder]).files) {
     process.stderr.write(`${key}: ${last.status}\n`);
   }
 }
-const log200 = await benchSyntheticLog(200);
+const log200 = problemsOnly ? null : await benchSyntheticLog(200);
 process.stdout.write(JSON.stringify({ node: process.version, cores: os.availableParallelism(), problems, log200 }, null, 2) + '\n');

@@ -3,7 +3,7 @@ import { findBreakpoints } from './breakpoints.ts';
 import { claimChecks, optimiserChecks, referenceChecks } from './checks.ts';
 import { COMPARISON_FLOOR, ENERGY_RELATIVE_ERROR_LIMIT, WALL_TOLERANCE } from './tolerances.ts';
 import { domainOf, type Domain } from './domain.ts';
-import { expectation, type Expectation } from './expectation.ts';
+import { expectation, placedExpectation, searchExpectation, type Expectation } from './expectation.ts';
 import { g } from './format.ts';
 import type { GridLevels } from './grid-levels.ts';
 import { gridReference } from './grid-reference.ts';
@@ -65,14 +65,15 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
   const startProbe = probeTrial(problem.trial.value, domain);
   counts.trialEvaluations += startProbe.evaluations;
   const potentialBreaks = findBreakpoints(problem.potentialSwitches, domain.lo, domain.hi, startProbe.center, startProbe.scale).points;
-  const atStart = evaluate(problem, domain, potentialBreaks, start, counts);
+  const atStart = counted(placedExpectation(problem, domain, potentialBreaks, startProbe), counts);
   const startChecks = trialChecks(problem, domain, atStart, 'the start values');
   if (startChecks.some((c) => !c.pass)) return invalidResult(startChecks, counts, started);
 
   let optimiser: MinimizeResult | null = null;
   let best = start;
   if (problem.parameters.length > 0) {
-    optimiser = minimizeBounded((p) => evaluate(problem, domain, potentialBreaks, p, counts).energy, problem.parameters);
+    const atPoint = searchExpectation(problem, domain, potentialBreaks, atStart);
+    optimiser = minimizeBounded((p) => counted(atPoint(p), counts).energy, problem.parameters);
     best = Array.from(optimiser.x);
   }
   const optimum = evaluate(problem, domain, potentialBreaks, best, counts);
@@ -93,7 +94,7 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
   if (optimiser) checks.push(...optimiserChecks(problem, optimiser));
 
   problem.trial.setParameters(best);
-  const variance = energyVariance(problem, domain, optimum.splits, optimum.probe.scale, optimum.probe.peakAmplitude, energy, optimum.norm);
+  const variance = energyVariance(problem, domain, optimum);
 
   const { grid, gridError, referenceMs } = gridReference(problem, potentialBreaks, { center: optimum.probe.center, width: optimum.probe.scale });
   const tolerance = 10 * optimum.errorEstimate + COMPARISON_FLOOR * Math.max(1, Math.abs(energy));
@@ -107,12 +108,13 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
 
   const { status, message } = statusOf(checks);
   const timings = { variationalMs: performance.now() - started - referenceMs, referenceMs };
+  const scanAt = searchExpectation(problem, domain, potentialBreaks, optimum);
   const plots = plotData(
     {
       problem,
       domain,
       optimum: best,
-      energyAt: (p) => expectation(problem, domain, potentialBreaks, p).energy,
+      energyAt: (p) => scanAt(p).energy,
       kinetic: optimum.kinetic,
       curvature: optimiser?.hessian ?? null,
       norm: optimum.norm,
@@ -146,7 +148,10 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
 }
 
 function evaluate(problem: VariationalProblem, domain: Domain, potentialBreaks: number[], p: ArrayLike<number>, counts: EngineResult['counts']): Expectation {
-  const result = expectation(problem, domain, potentialBreaks, p);
+  return counted(expectation(problem, domain, potentialBreaks, p), counts);
+}
+
+function counted<T extends { evaluations: number }>(result: T, counts: EngineResult['counts']): T {
   counts.energyEvaluations++;
   counts.trialEvaluations += result.evaluations;
   return result;

@@ -1,7 +1,7 @@
 import { findBreakpoints } from './breakpoints.ts';
 import { splitPoints, type Domain } from './domain.ts';
 import type { VariationalProblem } from './problem.ts';
-import { integrateVector, type IntegrationResult } from './quadrature.ts';
+import { integrateVector, type IntegrationResult, type Partition } from './quadrature.ts';
 import { probeTrial, type TrialProbe } from './trial-probe.ts';
 
 /** <H> of the trial at one parameter point, with the pieces it is made of and their error. */
@@ -18,6 +18,8 @@ export interface Expectation {
   probe: TrialProbe;
   /** Quadrature split points used (domain ends, kinks of potential and trial, the trial's centre). */
   splits: number[];
+  /** The quadrature panels the energy integrals settled on. */
+  partition: Partition;
   evaluations: number;
 }
 
@@ -29,9 +31,15 @@ export const EXPECTATION_DEFAULTS = { relTol: 1e-12, maxIntervals: 2000 };
  * trials that vanish at the walls.
  */
 export function expectation(problem: VariationalProblem, domain: Domain, potentialBreaks: number[], parameters: ArrayLike<number>): Expectation {
+  problem.trial.setParameters(parameters);
+  const probe = probeTrial(problem.trial.value, domain);
+  const result = placedExpectation(problem, domain, potentialBreaks, probe);
+  return { ...result, evaluations: probe.evaluations + result.evaluations };
+}
+
+/** The expectation at the parameters already set, with the quadrature placed by `probe` (whose evaluations are not counted here) and started from `start`. */
+export function placedExpectation(problem: VariationalProblem, domain: Domain, potentialBreaks: number[], probe: TrialProbe, start?: Partition): Expectation {
   const { trial, potential, mass } = problem;
-  trial.setParameters(parameters);
-  const probe = probeTrial(trial.value, domain);
   const trialBreaks = findBreakpoints(trial.switches, domain.lo, domain.hi, probe.center, probe.scale);
   const centre = Number.isFinite(domain.lo) ? [] : [probe.center];
   const splits = splitPoints(domain, [...potentialBreaks, ...trialBreaks.points, ...centre]);
@@ -53,8 +61,8 @@ export function expectation(problem: VariationalProblem, domain: Domain, potenti
         // Far out a trial underflows to 0 where V may overflow (a Morse wall): the product is 0, not NaN.
         out[2] = psi === 0 ? 0 : potential(x) * psi * psi;
       };
-  const result = integrateVector(integrand, 3, { breakpoints: splits, scale: probe.scale, ...EXPECTATION_DEFAULTS });
-  const evaluations = probe.evaluations + trialBreaks.evaluations + result.evaluations;
+  const result = integrateVector(integrand, 3, { breakpoints: splits, scale: probe.scale, start, ...EXPECTATION_DEFAULTS });
+  const evaluations = trialBreaks.evaluations + result.evaluations;
   const [n, tk, v] = result.values;
   const norm = n;
   const kinetic = tk / (2 * mass) / norm;
@@ -73,9 +81,53 @@ export function expectation(problem: VariationalProblem, domain: Domain, potenti
     failureDetail: failure?.detail ?? null,
     probe,
     splits,
+    partition: result.partition,
     evaluations,
   };
 }
+
+/** What a search needs of one point: the energy (+Infinity where the trial is unusable) and the work it took. */
+export interface SearchPoint {
+  energy: number;
+  evaluations: number;
+}
+
+/** A point that needed more than this many times the panels of the point the quadrature was placed at starts the next one afresh. */
+const CARRY_LIMIT = 4;
+
+/**
+ * <H> at the points of one search, started from the expectation at the start values. Nearby points
+ * need nearly the same panels, so each run starts from the partition the previous one settled on
+ * and bisects only where that is no longer good enough: the leaves alone are evaluated, not the
+ * coarser panels an adaptive run from whole segments passes through. The trial is not probed at
+ * every point: where it lived when the quadrature was placed only positions the panels (which ones
+ * are needed is the error estimate's business); its kinks, which move with the parameters, are
+ * sought at every point. When a point needs more than CARRY_LIMIT times the panels of the placement,
+ * the trial has moved or changed width too much for it, and the next point is probed and integrated
+ * afresh. Every value meets the same tolerance by the same error estimate as a fresh evaluation.
+ */
+export function searchExpectation(problem: VariationalProblem, domain: Domain, potentialBreaks: number[], atStart: Expectation): (parameters: ArrayLike<number>) => SearchPoint {
+  let placement = atStart.probe;
+  let placedPanels = panelCount(atStart.partition);
+  let partition: Partition | undefined = atStart.partition;
+  return (parameters) => {
+    problem.trial.setParameters(parameters);
+    let probed = 0;
+    if (!partition) {
+      placement = probeTrial(problem.trial.value, domain);
+      probed = placement.evaluations;
+    }
+    const result = placedExpectation(problem, domain, potentialBreaks, placement, partition);
+    if (result.failure === null) {
+      const panels = panelCount(result.partition);
+      if (!partition) placedPanels = panels;
+      partition = panels <= CARRY_LIMIT * placedPanels ? result.partition : undefined;
+    }
+    return { energy: result.energy, evaluations: probed + result.evaluations };
+  };
+}
+
+const panelCount = (partition: Partition) => partition.panels.length / 3;
 
 function classifyFailure(result: IntegrationResult, probe: TrialProbe): { kind: NonNullable<Expectation['failure']>; detail: string } | null {
   if (probe.nonFiniteAt !== null) return { kind: 'non-finite', detail: `the trial is not a finite number at ${probe.nonFiniteAt} (a trial that overflows far out is not square-integrable)` };

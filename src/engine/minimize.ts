@@ -12,6 +12,8 @@ export interface ParameterRange {
 export interface MinimizeOptions {
   xTol?: number;
   fTol?: number;
+  /** Relative spread at which Nelder–Mead hands over to the Newton polish (n >= 2); at most fTol makes the simplex go all the way. */
+  searchFTol?: number;
   maxEvaluations?: number;
 }
 
@@ -21,6 +23,7 @@ export interface MinimizeResult {
   evaluations: number;
   iterations: number;
   polishSteps: number;          // accepted Newton steps
+  resumed: boolean;              // the polish could not certify the coarse search's point, so the simplex went on to fTol
   converged: boolean;            // the search met its tolerances and the curvature is available
   method: 'brent' | 'nelder-mead';
   activeLimits: Array<'min' | 'max' | null>;
@@ -37,7 +40,8 @@ export const DEFAULTS = {
   // sqrt(fTol) relative: finer than that the search would be steering by noise.
   fTol: 1e-12,
   // Cap on the search (Brent or Nelder–Mead with restarts). Its last iteration may overshoot by
-  // n + 1; the bound snap, the curvature and the polish add at most 1 + 2n^2 + polishIterations (2n^2 + 1).
+  // n + 1; the bound snap, the curvature and the polish add at most 1 + 2n^2 + polishIterations (2n^2 + 1)
+  // (2n more per curvature, 2n^2 + 2n in all, after a coarse simplex, whose polish may start just below the cap).
   maxEvaluations: 10000,
   // Finite-difference step relative to the parameter's scale: about fTol^(1/4), which balances
   // truncation error against noise in a second difference.
@@ -45,11 +49,18 @@ export const DEFAULTS = {
   // A parameter's scale is |x|, but never below this fraction of its range, so a parameter
   // near zero still gets a usable step.
   scaleFloor: 1e-2,
-  // Initial Nelder–Mead simplex edge, relative to each parameter's scale.
+  // Initial Nelder–Mead simplex edge, relative to each parameter's size, but never below
+  // simplexFloor of its range: a parameter started at zero still gets an edge that can find its scale.
   simplexStep: 0.1,
+  simplexFloor: 0.05,
+  // Nelder–Mead first runs only until its simplex spread in f is below this (relative): from there
+  // the Newton polish converges in a step or two, where the simplex would need dozens of evaluations
+  // to shrink by the remaining factor. Where the polish cannot certify a minimum, Nelder–Mead resumes
+  // down to fTol.
+  searchFTol: 1e-7,
   // Restarts from the best vertex catch a simplex that has collapsed without reaching a minimum.
   restarts: 3,
-  polishIterations: 4,
+  polishIterations: 8,
   // A parameter this close to a bound (fraction of its range) is tried exactly at the bound.
   snapFraction: 1e-4,
   // A parameter this close to a bound (fraction of its range) counts as on it.
@@ -66,6 +77,7 @@ const GOLDEN = (3 - Math.sqrt(5)) / 2;
 interface Settings {
   xTol: number;
   fTol: number;
+  searchFTol: number;
   maxEvaluations: number;
 }
 
@@ -190,7 +202,8 @@ function nelderMeadRun(
   const values: number[] = [startValue];
   for (let i = 0; i < n; i++) {
     const vertex = Float64Array.from(start);
-    const step = DEFAULTS.simplexStep * scaleOf(start[i], ranges[i]);
+    const width = ranges[i].max - ranges[i].min;
+    const step = DEFAULTS.simplexStep * Math.min(width, Math.max(Math.abs(start[i]), DEFAULTS.simplexFloor * width));
     // Step away from the nearer bound so that clamping cannot flatten the simplex at the outset.
     const upward = ranges[i].max - start[i] >= start[i] - ranges[i].min;
     vertex[i] += upward ? step : -step;
@@ -267,10 +280,10 @@ function nelderMeadRun(
 }
 
 /** Nelder–Mead restarted from its best vertex until a restart no longer improves f (O'Neill, Appl. Stat. 20, 338 (1971), algorithm AS 47). */
-function nelderMead(objective: Objective, ranges: ParameterRange[], settings: Settings): SearchOutcome {
-  let outcome = nelderMeadRun(objective, ranges, settings, Float64Array.from(ranges, (r) => r.start), objective.at(ranges.map((r) => r.start)));
+function nelderMead(objective: Objective, ranges: ParameterRange[], settings: Settings, start: Float64Array, startValue: number, restarts: number): SearchOutcome {
+  let outcome = nelderMeadRun(objective, ranges, settings, start, startValue);
   let iterations = outcome.iterations;
-  for (let restart = 0; restart < DEFAULTS.restarts && outcome.converged; restart++) {
+  for (let restart = 0; restart < restarts && outcome.converged; restart++) {
     const next = nelderMeadRun(objective, ranges, settings, outcome.x, outcome.value);
     iterations += next.iterations;
     // A run keeps its starting vertex unless it finds better, so the restart never loses ground.
@@ -287,11 +300,16 @@ interface Derivatives {
   finite: boolean;
 }
 
-/** Central (one-sided at a bound) finite-difference gradient and Hessian (Nocedal & Wright, Numerical Optimization, 2006, §8.1). */
-function differentiate(objective: Objective, ranges: ParameterRange[], x: Float64Array, fx: number): Derivatives {
+/**
+ * Central (one-sided at a bound) finite-difference gradient and Hessian (Nocedal & Wright, Numerical Optimization, 2006, §8.1);
+ * with `fourthOrder`, the gradient from the five-point central stencil where it fits (Abramowitz & Stegun 25.3.6).
+ */
+function differentiate(objective: Objective, ranges: ParameterRange[], x: Float64Array, fx: number, fourthOrder = false): Derivatives {
   const n = x.length;
-  // Each coordinate gets first- and second-derivative stencils as (offset, weight) pairs;
-  // one-sided ones keep every evaluation inside the box.
+  // Each coordinate gets slope, first- and second-derivative stencils as (offset, weight) pairs;
+  // one-sided ones keep every evaluation inside the box. The first-derivative stencils also make
+  // the mixed second derivatives, so they stay at three points.
+  const slope: Array<Array<[number, number]>> = [];
   const first: Array<Array<[number, number]>> = [];
   const second: Array<Array<[number, number]>> = [];
   for (let i = 0; i < n; i++) {
@@ -305,6 +323,8 @@ function differentiate(objective: Objective, ranges: ParameterRange[], x: Float6
       first.push([[0, -1.5 / s], [s, 2 / s], [2 * s, -0.5 / s]]);
       second.push([[0, 1 / (h * h)], [s, -2 / (h * h)], [2 * s, 1 / (h * h)]]);
     }
+    const wide = x[i] - 2 * h >= min && x[i] + 2 * h <= max;
+    slope.push(fourthOrder && wide ? [[-2 * h, 1 / (12 * h)], [-h, -8 / (12 * h)], [h, 8 / (12 * h)], [2 * h, -1 / (12 * h)]] : first[i]);
   }
   const cache = new Map<string, number>([['', fx]]);
   const at = (shifts: Array<[number, number]>): number => {
@@ -318,7 +338,7 @@ function differentiate(objective: Objective, ranges: ParameterRange[], x: Float6
     cache.set(key, value);
     return value;
   };
-  const gradient = first.map((stencil, i) => stencil.reduce((sum, [offset, weight]) => sum + weight * at([[i, offset]]), 0));
+  const gradient = slope.map((stencil, i) => stencil.reduce((sum, [offset, weight]) => sum + weight * at([[i, offset]]), 0));
   const hessian = Array.from({ length: n }, () => new Array<number>(n).fill(0));
   for (let i = 0; i < n; i++) {
     hessian[i][i] = second[i].reduce((sum, [offset, weight]) => sum + weight * at([[i, offset]]), 0);
@@ -385,39 +405,34 @@ function validate(ranges: ParameterRange[], options: MinimizeOptions): Settings 
   const settings = {
     xTol: options.xTol ?? DEFAULTS.xTol,
     fTol: options.fTol ?? DEFAULTS.fTol,
+    searchFTol: options.searchFTol ?? DEFAULTS.searchFTol,
     maxEvaluations: options.maxEvaluations ?? DEFAULTS.maxEvaluations,
   };
-  if (!(settings.xTol > 0) || !(settings.fTol > 0) || !(settings.maxEvaluations >= 1)) {
-    throw new RangeError('minimizeBounded: xTol and fTol must be positive and maxEvaluations at least 1');
+  if (!(settings.xTol > 0) || !(settings.fTol > 0) || !(settings.searchFTol > 0) || !(settings.maxEvaluations >= 1)) {
+    throw new RangeError('minimizeBounded: xTol, fTol and searchFTol must be positive and maxEvaluations at least 1');
   }
   return settings;
 }
 
-/** Bounded minimisation: Brent's localmin (1973) for n = 1, restarted Nelder–Mead (1965) for n >= 2, then a Newton polish on the free parameters and the finite-difference curvature at the optimum. */
-export function minimizeBounded(
-  f: (x: Float64Array) => number,
-  ranges: ParameterRange[],
-  options: MinimizeOptions = {},
-): MinimizeResult {
-  const settings = validate(ranges, options);
-  const objective = new Objective(f, settings.maxEvaluations);
-  const method = ranges.length === 1 ? 'brent' : 'nelder-mead';
-  const search = method === 'brent' ? brent(objective, ranges[0], settings) : nelderMead(objective, ranges, settings);
-  let x = search.x;
-  let value = search.value;
-  const result = (derivatives: Derivatives, polishSteps: number, message: string | null): MinimizeResult => ({
-    x, value, evaluations: objective.evaluations, iterations: search.iterations, polishSteps,
-    converged: search.converged && message === null, method,
-    activeLimits: activeLimitsOf(x, ranges, derivatives.gradient),
-    hessian: derivatives.hessian, gradient: derivatives.gradient, rejectedEvaluations: objective.rejected,
-    message: search.message ?? message,
-  });
-  if (!Number.isFinite(value)) {
-    const unknown = () => ranges.map(() => NaN);
-    return result({ gradient: unknown(), hessian: ranges.map(unknown), finite: false }, 0,
-      'f was not finite at any point tried');
-  }
+/** The polish certifies a minimum only if its last step lowered f by between 1/4 and 4 times what its model predicted. */
+const MODEL_AGREEMENT = 4;
 
+interface Polished {
+  x: Float64Array;
+  value: number;
+  derivatives: Derivatives;
+  steps: number;
+  /**
+   * A minimum to within the resolution of f: the next step would lower f by less than fTol (or every
+   * parameter sits on a limit), and the last step taken bore out the quadratic model that says so.
+   */
+  certified: boolean;
+}
+
+/** Newton iteration with finite-difference derivatives on the free parameters (Nocedal & Wright, Numerical Optimization, 2006, §3.3 and §8.1), each step accepted only if it lowers f; tries the bounds first. */
+function polish(objective: Objective, ranges: ParameterRange[], settings: Settings, start: Float64Array, startValue: number, fourthOrder = false): Polished {
+  let x = start;
+  let value = startValue;
   // The search approaches a bound only to within its tolerance; the bound itself is tried directly.
   const snapped = Float64Array.from(x, (xi, i) => {
     const { min, max } = ranges[i];
@@ -429,26 +444,91 @@ export function minimizeBounded(
     if (fSnapped < value) [x, value] = [snapped, fSnapped];
   }
 
-  let derivatives = differentiate(objective, ranges, x, value);
-  let polishSteps = 0;
-  for (let iteration = 0; iteration < DEFAULTS.polishIterations && derivatives.finite; iteration++) {
+  let derivatives = differentiate(objective, ranges, x, value, fourthOrder);
+  let steps = 0;
+  // Actual over predicted decrease of the last accepted step (Nocedal & Wright §4.1): far from 1,
+  // the quadratic model at the finite-difference scale does not describe f, and cannot certify it.
+  let agreement = 1;
+  for (;;) {
+    if (!derivatives.finite) return { x, value, derivatives, steps, certified: false };
     const active = activeLimitsOf(x, ranges, derivatives.gradient);
     const free = ranges.map((_, i) => i).filter((i) => active[i] === null);
-    const step = free.length > 0 ? newtonStep(derivatives, free) : null;
-    if (!step) break;
-    // Below the resolution of f a "lower" value is noise, so the polish stops there.
+    if (free.length === 0) return { x, value, derivatives, steps, certified: true };
+    const step = newtonStep(derivatives, free);
+    if (!step) return { x, value, derivatives, steps, certified: false };
+    // Below the resolution of f (or of x, where f vanishes at the minimum) a "lower" value is noise,
+    // so the polish stops there.
     const predictedDecrease = -0.5 * step.reduce((sum, s, k) => sum + s * derivatives.gradient[free[k]], 0);
-    if (!(predictedDecrease > settings.fTol * Math.abs(value))) break;
+    const negligible = step.every((s, k) => Math.abs(s) <= settings.xTol * (ranges[free[k]].max - ranges[free[k]].min));
+    if (negligible || !(predictedDecrease > settings.fTol * Math.abs(value))) {
+      const modelHolds = agreement >= 1 / MODEL_AGREEMENT && agreement <= MODEL_AGREEMENT;
+      return { x, value, derivatives, steps, certified: modelHolds };
+    }
+    if (steps >= DEFAULTS.polishIterations) return { x, value, derivatives, steps, certified: false };
     const trial = Float64Array.from(x);
     free.forEach((i, k) => { trial[i] += step[k]; });
     clampInto(trial, ranges);
     const fTrial = objective.at(trial);
-    if (!(fTrial < value)) break;
+    if (!(fTrial < value)) return { x, value, derivatives, steps, certified: false };
+    agreement = (value - fTrial) / predictedDecrease;
     [x, value] = [trial, fTrial];
-    derivatives = differentiate(objective, ranges, x, value);
-    polishSteps++;
+    derivatives = differentiate(objective, ranges, x, value, fourthOrder);
+    steps++;
   }
-  return result(derivatives, polishSteps, derivatives.finite
-    ? null
-    : 'f is not finite within a finite-difference step of the optimum, so the curvature is unavailable');
+}
+
+/**
+ * Bounded minimisation: Brent's localmin (1973) for n = 1; for n >= 2 Nelder–Mead (1965) to a coarse
+ * spread, resumed with restarts down to fTol only where the Newton polish cannot certify the point;
+ * then the finite-difference curvature at the optimum.
+ */
+export function minimizeBounded(
+  f: (x: Float64Array) => number,
+  ranges: ParameterRange[],
+  options: MinimizeOptions = {},
+): MinimizeResult {
+  const settings = validate(ranges, options);
+  const objective = new Objective(f, settings.maxEvaluations);
+  const method = ranges.length === 1 ? 'brent' : 'nelder-mead';
+  let search: SearchOutcome;
+  let resumed = false;
+  if (method === 'brent') {
+    search = brent(objective, ranges[0], settings);
+  } else {
+    const start = Float64Array.from(ranges, (r) => r.start);
+    const coarse = settings.searchFTol > settings.fTol;
+    search = nelderMead(objective, ranges, coarse ? { ...settings, fTol: settings.searchFTol } : settings, start, objective.at(start), coarse ? 0 : DEFAULTS.restarts);
+    if (coarse && search.converged && Number.isFinite(search.value) && !objective.exhausted) {
+      // Newton's end point is off the minimum by the gradient's error over the curvature, which a
+      // flat valley magnifies; the five-point gradient keeps that below the resolution of f.
+      const first = polish(objective, ranges, settings, search.x, search.value, true);
+      if (first.certified) return result(objective, ranges, method, search, first, false);
+      if (objective.exhausted) {
+        const message = `evaluation limit ${objective.evaluations} reached before the point of the coarse search could be polished to a certified minimum`;
+        return result(objective, ranges, method, { ...search, converged: false, message }, first, false);
+      }
+      const iterations = search.iterations;
+      search = nelderMead(objective, ranges, settings, first.x, first.value, DEFAULTS.restarts);
+      search = { ...search, iterations: iterations + search.iterations };
+      resumed = true;
+    }
+  }
+  if (!Number.isFinite(search.value)) {
+    const unknown = () => ranges.map(() => NaN);
+    const derivatives = { gradient: unknown(), hessian: ranges.map(unknown), finite: false };
+    return result(objective, ranges, method, { ...search, message: search.message ?? 'f was not finite at any point tried' }, { x: search.x, value: search.value, derivatives, steps: 0, certified: false }, resumed);
+  }
+  return result(objective, ranges, method, search, polish(objective, ranges, settings, search.x, search.value), resumed);
+}
+
+function result(objective: Objective, ranges: ParameterRange[], method: MinimizeResult['method'], search: SearchOutcome, polished: Polished, resumed: boolean): MinimizeResult {
+  const { x, value, derivatives } = polished;
+  const message = derivatives.finite ? null : 'f is not finite within a finite-difference step of the optimum, so the curvature is unavailable';
+  return {
+    x, value, evaluations: objective.evaluations, iterations: search.iterations, polishSteps: polished.steps, resumed,
+    converged: search.converged && message === null, method,
+    activeLimits: activeLimitsOf(x, ranges, derivatives.gradient),
+    hessian: derivatives.hessian, gradient: derivatives.gradient, rejectedEvaluations: objective.rejected,
+    message: search.message ?? message,
+  };
 }

@@ -10,6 +10,8 @@ export interface IntegrationOptions {
   relTol?: number;
   absTol?: number;
   maxIntervals?: number;
+  /** Panels to start from (a previous run's `partition`); ignored unless it has as many segments as these breakpoints make. */
+  start?: Partition;
 }
 
 export type IntegrationStatus = 'converged' | 'interval-limit' | 'roundoff' | 'non-finite';
@@ -23,6 +25,8 @@ export interface IntegrationResult {
   converged: boolean;
   status: IntegrationStatus;
   message: string | null;
+  /** The panels the run ended with. */
+  partition: Partition;
 }
 
 export const DEFAULTS = {
@@ -177,37 +181,54 @@ export function gaussKronrodRule(n: number): GaussKronrodRule {
 }
 
 const RULE = gaussKronrodRule(DEFAULTS.gaussPoints);
-const OUTERMOST_NODE = RULE.nodes[RULE.nodes.length - 1];
+const NODES = RULE.nodes;
+const KRONROD_WEIGHTS = RULE.kronrodWeights;
+const GAUSS_WEIGHTS = RULE.gaussWeights;
+const RULE_POINTS = NODES.length;
+const OUTERMOST_NODE = NODES[RULE_POINTS - 1];
 const EPSILON = Number.EPSILON;
 const UNDERFLOW = Number.MIN_VALUE;
 
-// A segment between consecutive breakpoints, integrated over t with x = map(t).
+/**
+ * The panels an adaptive run settled on, as fractions of each segment's parameter range, so that a
+ * run at a nearby parameter point can start from them instead of from whole segments.
+ */
+export interface Partition {
+  segments: number;
+  /** (segment index, start fraction, end fraction) per panel. */
+  panels: number[];
+}
+
+// How a segment between consecutive breakpoints maps its parameter t to x.
+const FINITE = 0; // x = t on [a, b]
+const FROM_MINUS_INFINITY = 1; // x = b - scale t/(1-t), t in [0, 1): the infinite end is never reached
+const TO_INFINITY = 2; // x = a + scale t/(1-t)
+
 interface Segment {
+  kind: typeof FINITE | typeof FROM_MINUS_INFINITY | typeof TO_INFINITY;
+  a: number;
+  b: number;
+  scale: number;
   tStart: number;
   tEnd: number;
-  xLow: number; // open x-range the integrand may be evaluated on
-  xHigh: number;
-  map: (t: number) => number;
-  jacobian: (t: number) => number;
+}
+
+function xAt(segment: Segment, t: number): number {
+  if (segment.kind === FINITE) return t;
+  const stretch = (segment.scale * t) / (1 - t);
+  return segment.kind === TO_INFINITY ? segment.a + stretch : segment.b - stretch;
+}
+
+function jacobianAt(segment: Segment, t: number): number {
+  if (segment.kind === FINITE) return 1;
+  const complement = 1 - t;
+  return segment.scale / (complement * complement);
 }
 
 function makeSegment(a: number, b: number, scale: number): Segment {
-  if (a === -Infinity) {
-    // x = b - scale t/(1-t), t in [0, 1): the infinite end is never reached.
-    return {
-      tStart: 0, tEnd: 1, xLow: -Infinity, xHigh: b,
-      map: (t) => b - (scale * t) / (1 - t),
-      jacobian: (t) => scale / ((1 - t) * (1 - t)),
-    };
-  }
-  if (b === Infinity) {
-    return {
-      tStart: 0, tEnd: 1, xLow: a, xHigh: Infinity,
-      map: (t) => a + (scale * t) / (1 - t),
-      jacobian: (t) => scale / ((1 - t) * (1 - t)),
-    };
-  }
-  return { tStart: a, tEnd: b, xLow: a, xHigh: b, map: (t) => t, jacobian: () => 1 };
+  if (a === -Infinity) return { kind: FROM_MINUS_INFINITY, a, b, scale, tStart: 0, tEnd: 1 };
+  if (b === Infinity) return { kind: TO_INFINITY, a, b, scale, tStart: 0, tEnd: 1 };
+  return { kind: FINITE, a, b, scale, tStart: a, tEnd: b };
 }
 
 // The rule may be applied only if rounding keeps its outermost nodes off the interval's ends,
@@ -218,43 +239,97 @@ function ruleFits(segment: Segment, tA: number, tB: number): boolean {
   const first = center - half * OUTERMOST_NODE;
   const last = center + half * OUTERMOST_NODE;
   if (!(tA < first && last < tB)) return false;
-  const x1 = segment.map(first);
-  const x2 = segment.map(last);
-  const inside = (x: number) => Number.isFinite(x) && segment.xLow < x && x < segment.xHigh;
-  return inside(x1) && inside(x2) && x1 !== x2;
+  const x1 = xAt(segment, first);
+  const x2 = xAt(segment, last);
+  return inside(segment, x1) && inside(segment, x2) && x1 !== x2;
 }
 
-interface Interval {
-  segment: Segment;
-  tA: number;
-  tB: number;
-  values: Float64Array;
-  absValues: Float64Array;
-  errors: Float64Array;
-  frozen: boolean; // too narrow to bisect in floating point
+function inside(segment: Segment, x: number): boolean {
+  const low = segment.kind === FROM_MINUS_INFINITY ? -Infinity : segment.a;
+  const high = segment.kind === TO_INFINITY ? Infinity : segment.b;
+  return Number.isFinite(x) && low < x && x < high;
 }
 
-type RuleOutcome =
-  | { interval: Interval; calls: number }
-  | { badX: number; badValue: number; component: number; calls: number };
+interface NonFinitePoint {
+  badX: number;
+  badValue: number;
+  component: number;
+  /** Integrand calls made up to and including the failing one. */
+  calls: number;
+}
 
-/** One Gauss–Kronrod panel with the QUADPACK error estimate (Piessens, de Doncker-Kapenga, Überhuber & Kahaner, QUADPACK, Springer 1983, routine QK21). */
-function applyRule(
-  f: VectorIntegrand,
-  components: number,
-  segment: Segment,
-  tA: number,
-  tB: number,
-  samples: Float64Array,
-  point: Float64Array,
-): RuleOutcome {
+/**
+ * The panels of one run in flat arrays, and the run's scratch. Per panel and component, `sums` holds
+ * the value, the integral of |f| and the error estimate, in that order. Typed arrays beyond a few
+ * dozen bytes live outside the heap and cost about a microsecond each to allocate, so one workspace
+ * serves every run (a run inside an integrand, which nothing does now, would get its own).
+ */
+class Panels {
+  count = 0;
+  components = 0;
+  segment = new Int32Array(64);
+  tA = new Float64Array(64);
+  tB = new Float64Array(64);
+  frozen = new Uint8Array(64); // too narrow to bisect in floating point
+  sums = new Float64Array(64 * 9);
+  samples = new Float64Array(0);
+  point = new Float64Array(0);
+  busy = false;
+
+  reset(components: number): this {
+    this.count = 0;
+    this.components = components;
+    if (this.samples.length < RULE_POINTS * components) {
+      this.samples = new Float64Array(RULE_POINTS * components);
+      this.point = new Float64Array(components);
+    }
+    if (this.sums.length < this.tA.length * 3 * components) this.sums = new Float64Array(this.tA.length * 3 * components);
+    return this;
+  }
+
+  /** Reserves room for one more panel and returns its index. */
+  add(segment: number, tA: number, tB: number): number {
+    if (this.count === this.tA.length) this.grow();
+    const index = this.count++;
+    this.segment[index] = segment;
+    this.tA[index] = tA;
+    this.tB[index] = tB;
+    this.frozen[index] = 0;
+    return index;
+  }
+
+  private grow(): void {
+    const size = 2 * this.tA.length;
+    const segment = new Int32Array(size);
+    const tA = new Float64Array(size);
+    const tB = new Float64Array(size);
+    const frozen = new Uint8Array(size);
+    const sums = new Float64Array(size * 3 * this.components);
+    segment.set(this.segment);
+    tA.set(this.tA);
+    tB.set(this.tB);
+    frozen.set(this.frozen);
+    sums.set(this.sums.subarray(0, this.count * 3 * this.components));
+    Object.assign(this, { segment, tA, tB, frozen, sums });
+  }
+}
+
+const WORKSPACE = new Panels();
+
+/**
+ * One Gauss–Kronrod panel with the QUADPACK error estimate (Piessens, de Doncker-Kapenga, Überhuber & Kahaner, QUADPACK, Springer 1983, routine QK21),
+ * written into panel `index` of `panels`; returns the first non-finite integrand value met, if any.
+ */
+function applyRule(f: VectorIntegrand, panels: Panels, index: number, segment: Segment): NonFinitePoint | null {
+  const { components, samples, point } = panels;
+  const tA = panels.tA[index];
+  const tB = panels.tB[index];
   const center = 0.5 * (tA + tB);
   const half = 0.5 * (tB - tA);
-  const count = RULE.nodes.length;
-  for (let i = 0; i < count; i++) {
-    const t = center + half * RULE.nodes[i];
-    const x = segment.map(t);
-    const jacobian = segment.jacobian(t);
+  for (let i = 0; i < RULE_POINTS; i++) {
+    const t = center + half * NODES[i];
+    const x = xAt(segment, t);
+    const jacobian = jacobianAt(segment, t);
     f(x, point);
     for (let k = 0; k < components; k++) {
       const value = point[k] * jacobian;
@@ -262,37 +337,37 @@ function applyRule(
       samples[i * components + k] = value;
     }
   }
-  const values = new Float64Array(components);
-  const absValues = new Float64Array(components);
-  const errors = new Float64Array(components);
+  const width = Math.abs(half);
+  const sums = panels.sums;
+  const base = index * 3 * components;
   for (let k = 0; k < components; k++) {
     let kronrod = 0;
     let gauss = 0;
     let absolute = 0;
-    for (let i = 0; i < count; i++) {
+    for (let i = 0; i < RULE_POINTS; i++) {
       const value = samples[i * components + k];
-      kronrod += RULE.kronrodWeights[i] * value;
-      gauss += RULE.gaussWeights[i] * value;
-      absolute += RULE.kronrodWeights[i] * Math.abs(value);
+      kronrod += KRONROD_WEIGHTS[i] * value;
+      gauss += GAUSS_WEIGHTS[i] * value;
+      absolute += KRONROD_WEIGHTS[i] * Math.abs(value);
     }
     const mean = 0.5 * kronrod;
     let spread = 0;
-    for (let i = 0; i < count; i++) {
-      spread += RULE.kronrodWeights[i] * Math.abs(samples[i * components + k] - mean);
-    }
-    const width = Math.abs(half);
+    for (let i = 0; i < RULE_POINTS; i++) spread += KRONROD_WEIGHTS[i] * Math.abs(samples[i * components + k] - mean);
     absolute *= width;
     spread *= width;
     // |K - G| overstates the error of the higher rule by orders of magnitude on smooth panels;
     // QUADPACK's (200|K-G|/spread)^1.5 rescaling keeps it honest without being wasteful.
     let error = Math.abs((kronrod - gauss) * half);
-    if (spread !== 0 && error !== 0) error = spread * Math.min(1, Math.pow((200 * error) / spread, 1.5));
+    if (spread !== 0 && error !== 0) {
+      const ratio = (200 * error) / spread;
+      error = spread * Math.min(1, ratio * Math.sqrt(ratio));
+    }
     if (absolute > UNDERFLOW / (50 * EPSILON)) error = Math.max(50 * EPSILON * absolute, error);
-    values[k] = kronrod * half;
-    absValues[k] = absolute;
-    errors[k] = error;
+    sums[base + k] = kronrod * half;
+    sums[base + components + k] = absolute;
+    sums[base + 2 * components + k] = error;
   }
-  return { interval: { segment, tA, tB, values, absValues, errors, frozen: false }, calls: count };
+  return null;
 }
 
 function segmentsFrom(breakpoints: number[], scale: number): Segment[] {
@@ -320,7 +395,46 @@ function segmentsFrom(breakpoints: number[], scale: number): Segment[] {
   return segments;
 }
 
-/** Globally adaptive bisection of the worst panel (Piessens, de Doncker-Kapenga, Überhuber & Kahaner, QUADPACK, Springer 1983, routines QAG/QAGI/QAGP). */
+// A fraction of a segment's parameter range back to the parameter; the ends stay exact.
+function tOf(segment: Segment, u: number): number {
+  if (u <= 0) return segment.tStart;
+  if (u >= 1) return segment.tEnd;
+  return segment.tStart + u * (segment.tEnd - segment.tStart);
+}
+
+/** Fills `panels` with the starting panels: those of a previous run when they fit these segments, else one per segment. */
+function startingPanels(panels: Panels, segments: Segment[], start: Partition | undefined): void {
+  if (start && start.segments === segments.length) {
+    let fits = true;
+    for (let p = 0; p < start.panels.length && fits; p += 3) {
+      const segment = segments[start.panels[p]];
+      const tA = tOf(segment, start.panels[p + 1]);
+      const tB = tOf(segment, start.panels[p + 2]);
+      fits = ruleFits(segment, tA, tB);
+      panels.add(start.panels[p], tA, tB);
+    }
+    if (fits) return;
+    panels.count = 0;
+  }
+  for (let i = 0; i < segments.length; i++) panels.add(i, segments[i].tStart, segments[i].tEnd);
+}
+
+function partitionOf(panels: Panels, segments: Segment[]): Partition {
+  const flat = new Array<number>(3 * panels.count);
+  for (let i = 0; i < panels.count; i++) {
+    const segment = segments[panels.segment[i]];
+    const range = segment.tEnd - segment.tStart;
+    flat[3 * i] = panels.segment[i];
+    flat[3 * i + 1] = (panels.tA[i] - segment.tStart) / range;
+    flat[3 * i + 2] = (panels.tB[i] - segment.tStart) / range;
+  }
+  return { segments: segments.length, panels: flat };
+}
+
+/**
+ * Globally adaptive bisection of the worst panel (Piessens, de Doncker-Kapenga, Überhuber & Kahaner, QUADPACK, Springer 1983, routines QAG/QAGI/QAGP),
+ * started from whole segments or from the partition of an earlier run (`options.start`).
+ */
 export function integrateVector(f: VectorIntegrand, components: number, options: IntegrationOptions): IntegrationResult {
   const scale = options.scale ?? DEFAULTS.scale;
   const relTol = options.relTol ?? DEFAULTS.relTol;
@@ -334,50 +448,83 @@ export function integrateVector(f: VectorIntegrand, components: number, options:
   const segments = segmentsFrom(options.breakpoints, scale);
   if (!(maxIntervals >= segments.length)) throw new RangeError('integrateVector: maxIntervals is below the number of segments');
 
-  const samples = new Float64Array(RULE.nodes.length * components);
-  const point = new Float64Array(components);
-  let evaluations = 0;
-  const intervals: Interval[] = [];
-  const values = new Float64Array(components);
-  const absValues = new Float64Array(components);
-  const errorEstimates = new Float64Array(components);
+  const panels = WORKSPACE.busy ? new Panels() : WORKSPACE;
+  panels.busy = true;
+  try {
+    panels.reset(components);
+    startingPanels(panels, segments, options.start);
+    return adapt(f, panels, segments, relTol, absTol, maxIntervals);
+  } finally {
+    panels.busy = false;
+  }
+}
+
+function failed(status: IntegrationStatus, message: string, run: Run): IntegrationResult {
+  if (status === 'non-finite') {
+    run.values.fill(NaN);
+    run.errorEstimates.fill(Infinity);
+    run.absValues.fill(NaN);
+  }
+  return finished(status, message, run);
+}
+
+function finished(status: IntegrationStatus, message: string | null, run: Run): IntegrationResult {
+  const { values, absValues, errorEstimates, evaluations, panels, segments } = run;
+  return {
+    values, absValues, errorEstimates, evaluations, intervals: panels.count,
+    converged: status === 'converged', status, message, partition: partitionOf(panels, segments),
+  };
+}
+
+interface Run {
+  panels: Panels;
+  segments: Segment[];
+  values: Float64Array;
+  absValues: Float64Array;
+  errorEstimates: Float64Array;
+  evaluations: number;
+}
+
+// Evaluates panel `index`; returns a message if the integrand was not a finite number somewhere.
+function evaluatePanel(f: VectorIntegrand, run: Run, index: number): string | null {
+  const bad = applyRule(f, run.panels, index, run.segments[run.panels.segment[index]]);
+  if (!bad) {
+    run.evaluations += RULE_POINTS;
+    return null;
+  }
+  run.evaluations += bad.calls;
+  return `integrand component ${bad.component} returned ${bad.badValue} at x = ${bad.badX}`;
+}
+
+function adapt(f: VectorIntegrand, panels: Panels, segments: Segment[], relTol: number, absTol: number, maxIntervals: number): IntegrationResult {
+  const components = panels.components;
+  const run: Run = {
+    panels, segments, evaluations: 0,
+    values: new Float64Array(components), absValues: new Float64Array(components), errorEstimates: new Float64Array(components),
+  };
+  const { values, absValues, errorEstimates } = run;
   const frozenErrors = new Float64Array(components);
   const tolerances = new Float64Array(components);
 
-  const finish = (status: IntegrationStatus, message: string | null): IntegrationResult => ({
-    values, absValues, errorEstimates, evaluations, intervals: intervals.length,
-    converged: status === 'converged', status, message,
-  });
-  const evaluate = (segment: Segment, tA: number, tB: number): Interval | string => {
-    const outcome = applyRule(f, components, segment, tA, tB, samples, point);
-    evaluations += outcome.calls;
-    if ('interval' in outcome) return outcome.interval;
-    return `integrand component ${outcome.component} returned ${outcome.badValue} at x = ${outcome.badX}`;
-  };
-  const nonFinite = (message: string): IntegrationResult => {
-    values.fill(NaN);
-    errorEstimates.fill(Infinity);
-    absValues.fill(NaN);
-    return finish('non-finite', message);
-  };
-
-  for (const segment of segments) {
-    const interval = evaluate(segment, segment.tStart, segment.tEnd);
-    if (typeof interval === 'string') return nonFinite(interval);
-    intervals.push(interval);
+  for (let i = 0; i < panels.count; i++) {
+    const bad = evaluatePanel(f, run, i);
+    if (bad) return failed('non-finite', bad, run);
   }
 
+  const stride = 3 * components;
   for (;;) {
     values.fill(0);
     absValues.fill(0);
     errorEstimates.fill(0);
     frozenErrors.fill(0);
-    for (const interval of intervals) {
+    const sums = panels.sums;
+    for (let i = 0; i < panels.count; i++) {
+      const base = i * stride;
       for (let k = 0; k < components; k++) {
-        values[k] += interval.values[k];
-        absValues[k] += interval.absValues[k];
-        errorEstimates[k] += interval.errors[k];
-        if (interval.frozen) frozenErrors[k] += interval.errors[k];
+        values[k] += sums[base + k];
+        absValues[k] += sums[base + components + k];
+        errorEstimates[k] += sums[base + 2 * components + k];
+        if (panels.frozen[i]) frozenErrors[k] += sums[base + 2 * components + k];
       }
     }
     let converged = true;
@@ -387,46 +534,52 @@ export function integrateVector(f: VectorIntegrand, components: number, options:
       if (errorEstimates[k] > tolerances[k]) converged = false;
       if (frozenErrors[k] > tolerances[k]) stuck = k;
     }
-    if (converged) return finish('converged', null);
+    if (converged) return finished('converged', null, run);
     if (stuck >= 0) {
-      const worst = intervals.filter((interval) => interval.frozen)
-        .reduce((a, b) => (b.errors[stuck] > a.errors[stuck] ? b : a));
-      return finish('roundoff',
-        `component ${stuck}: error ${errorEstimates[stuck]} exceeds tolerance ${tolerances[stuck]} and is concentrated in a panel too narrow to bisect near x = ${worst.segment.map(0.5 * (worst.tA + worst.tB))}; the integrand may be singular or discontinuous there`);
+      let worst = -1;
+      for (let i = 0; i < panels.count; i++) {
+        const error = sums[i * stride + 2 * components + stuck];
+        if (panels.frozen[i] && (worst < 0 || error > sums[worst * stride + 2 * components + stuck])) worst = i;
+      }
+      const where = xAt(segments[panels.segment[worst]], 0.5 * (panels.tA[worst] + panels.tB[worst]));
+      return failed('roundoff',
+        `component ${stuck}: error ${errorEstimates[stuck]} exceeds tolerance ${tolerances[stuck]} and is concentrated in a panel too narrow to bisect near x = ${where}; the integrand may be singular or discontinuous there`, run);
     }
-    if (intervals.length >= maxIntervals) {
+    if (panels.count >= maxIntervals) {
       const k = errorEstimates.findIndex((error, i) => error > tolerances[i]);
-      return finish('interval-limit',
-        `component ${k}: error ${errorEstimates[k]} still exceeds tolerance ${tolerances[k]} after ${intervals.length} intervals; the integral may diverge, or needs more intervals or breakpoints`);
+      return failed('interval-limit',
+        `component ${k}: error ${errorEstimates[k]} still exceeds tolerance ${tolerances[k]} after ${panels.count} intervals; the integral may diverge, or needs more intervals or breakpoints`, run);
     }
 
-    let worstIndex = -1;
+    let worst = -1;
     let worstRatio = -1;
-    intervals.forEach((interval, i) => {
-      if (interval.frozen) return;
+    for (let i = 0; i < panels.count; i++) {
+      if (panels.frozen[i]) continue;
       let ratio = 0;
       for (let k = 0; k < components; k++) {
-        const error = interval.errors[k];
+        const error = sums[i * stride + 2 * components + k];
         if (error > 0) ratio = Math.max(ratio, tolerances[k] > 0 ? error / tolerances[k] : Infinity);
       }
       if (ratio > worstRatio) {
         worstRatio = ratio;
-        worstIndex = i;
+        worst = i;
       }
-    });
+    }
     // Not converged with every non-frozen panel exact would mean the frozen panels alone exceed
     // the tolerance, which the `stuck` test above has already reported.
-    const worst = intervals[worstIndex];
-    const middle = 0.5 * (worst.tA + worst.tB);
-    if (!ruleFits(worst.segment, worst.tA, middle) || !ruleFits(worst.segment, middle, worst.tB)) {
-      worst.frozen = true;
+    const segment = segments[panels.segment[worst]];
+    const tA = panels.tA[worst];
+    const tB = panels.tB[worst];
+    const middle = 0.5 * (tA + tB);
+    if (!ruleFits(segment, tA, middle) || !ruleFits(segment, middle, tB)) {
+      panels.frozen[worst] = 1;
       continue;
     }
-    const left = evaluate(worst.segment, worst.tA, middle);
-    if (typeof left === 'string') return nonFinite(left);
-    const right = evaluate(worst.segment, middle, worst.tB);
-    if (typeof right === 'string') return nonFinite(right);
-    intervals[worstIndex] = left;
-    intervals.push(right);
+    // The left half takes the worst panel's place, the right half goes to the end.
+    panels.tB[worst] = middle;
+    const left = evaluatePanel(f, run, worst);
+    if (left) return failed('non-finite', left, run);
+    const right = evaluatePanel(f, run, panels.add(panels.segment[worst], middle, tB));
+    if (right) return failed('non-finite', right, run);
   }
 }

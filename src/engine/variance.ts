@@ -1,4 +1,5 @@
 import type { Domain } from './domain.ts';
+import type { Expectation } from './expectation.ts';
 import type { VariationalProblem } from './problem.ts';
 import { integrateVector } from './quadrature.ts';
 
@@ -18,16 +19,11 @@ const VARIANCE_FLOOR = 1e-14;
 /**
  * The energy variance as ||(H - E) psi||^2 / ||psi||^2, which avoids the cancellation of
  * <H^2> - <H>^2 when the trial is nearly exact; H psi comes from the symbolic second derivative.
+ * `at` is the expectation at the parameters currently set.
  */
-export function energyVariance(
-  problem: VariationalProblem,
-  domain: Domain,
-  splits: number[],
-  scale: number,
-  peakAmplitude: number,
-  energy: number,
-  norm: number,
-): VarianceResult {
+export function energyVariance(problem: VariationalProblem, domain: Domain, at: Expectation): VarianceResult {
+  const { splits, partition, norm, energy } = at;
+  const { scale, peakAmplitude } = at.probe;
   const { trial, potential, mass } = problem;
   // A kink of the trial puts a delta function into H psi: the variance is then infinite.
   for (const x of splits) {
@@ -60,7 +56,8 @@ export function energyVariance(
       };
   // A nearly exact trial has a variance at rounding level, which no relative tolerance can resolve.
   const absTol = VARIANCE_FLOOR * Math.max(energy * energy, 1e-300) * norm;
-  const result = integrateVector(integrand, 1, { breakpoints: splits, scale, relTol: 1e-10, absTol, maxIntervals: 2000 });
+  // The energy integrals' panels, on the same split points and scale, are a good start for H psi too.
+  const result = integrateVector(integrand, 1, { breakpoints: splits, scale, relTol: 1e-10, absTol, maxIntervals: 2000, start: partition });
   if (!result.converged || !Number.isFinite(result.values[0])) {
     return {
       value: null,

@@ -27,11 +27,31 @@ const MAX_MULTIPLIED_POWER = 64;
  * never parse, look names up or touch mathjs. Subtrees that read no slot are folded to numbers.
  */
 export function compileTree(node: MathNode, slotOf: Readonly<Record<string, number>>, constants: Readonly<Record<string, number>>): Compiled {
-  return compilePart(node, slotOf, constants).run;
+  let cache = compiledNodes.get(slotOf);
+  if (!cache || cache.constants !== constants) {
+    cache = { constants, parts: new WeakMap() };
+    compiledNodes.set(slotOf, cache);
+  }
+  return compilePart(node, slotOf, constants, cache.parts).run;
 }
 
-function compilePart(node: MathNode, slotOf: Readonly<Record<string, number>>, constants: Readonly<Record<string, number>>): Part {
-  const c = (n: MathNode) => compilePart(n, slotOf, constants);
+/**
+ * Symbolic derivatives reuse the node objects of the tree they come from (d exp(u) = exp(u) u'), so
+ * compiling each node object once per slot layout makes a trial and its derivatives share closures,
+ * and with them the one-value memo of their costly functions: at one x, exp(u) is computed once.
+ */
+const compiledNodes = new WeakMap<object, { constants: object; parts: WeakMap<MathNode, Part> }>();
+
+function compilePart(node: MathNode, slotOf: Readonly<Record<string, number>>, constants: Readonly<Record<string, number>>, parts: WeakMap<MathNode, Part>): Part {
+  const known = parts.get(node);
+  if (known) return known;
+  const part = compileNode(node, slotOf, constants, parts);
+  parts.set(node, part);
+  return part;
+}
+
+function compileNode(node: MathNode, slotOf: Readonly<Record<string, number>>, constants: Readonly<Record<string, number>>, parts: WeakMap<MathNode, Part>): Part {
+  const c = (n: MathNode) => compilePart(n, slotOf, constants, parts);
   switch (node.type) {
     case 'ConstantNode':
       return constantPart((node as ConstantNode).value as number);
@@ -99,21 +119,39 @@ function folded(operands: Part[], run: Compiled): Part {
 // One closure per function: a call site that only ever sees Math.exp lets the engine inline it.
 function unaryFunction(name: string, u: Compiled): Compiled | null {
   switch (name) {
-    case 'exp': return (s) => Math.exp(u(s));
-    case 'log': return (s) => Math.log(u(s));
+    case 'exp': return remembered(u, Math.exp);
+    case 'log': return remembered(u, Math.log);
     case 'sqrt': return (s) => Math.sqrt(u(s));
     case 'abs': return (s) => Math.abs(u(s));
     case 'sign': return (s) => Math.sign(u(s));
     case 'sin': return (s) => Math.sin(u(s));
-    case 'cos': return (s) => Math.cos(u(s));
+    case 'cos': return remembered(u, Math.cos);
     case 'tan': return (s) => Math.tan(u(s));
     case 'sinh': return (s) => Math.sinh(u(s));
-    case 'cosh': return (s) => Math.cosh(u(s));
+    case 'cosh': return remembered(u, Math.cosh);
     case 'tanh': return (s) => Math.tanh(u(s));
-    case 'sech': return (s) => 1 / Math.cosh(u(s));
+    case 'sech': return remembered(u, (v) => 1 / Math.cosh(v));
     case 'erf': return (s) => erf(u(s));
     default: return null;
   }
+}
+
+/**
+ * f(u) remembering its last argument and value: the trial and its derivatives call the same exp(u)
+ * at the same point several times. Only for functions with f(-0) = f(+0), since the test u === last
+ * does not tell the two zeros apart; NaN never matches, so it is always recomputed.
+ */
+function remembered(u: Compiled, f: (v: number) => number): Compiled {
+  let last = NaN;
+  let value = NaN;
+  return (s) => {
+    const v = u(s);
+    if (v !== last) {
+      last = v;
+      value = f(v);
+    }
+    return value;
+  };
 }
 
 function compileOperator(node: OperatorNode, c: (n: MathNode) => Part): Part {

@@ -168,8 +168,9 @@ describe('minimizeBounded, several parameters (Nelder–Mead)', () => {
   });
 
   it('treats +Infinity as worse than anything in several dimensions', () => {
-    // Minimum 0 at (1, 1) inside the finite region x + y < 3 (elementary)
-    const f = (x: Float64Array) => (x[0] + x[1] < 3 ? (x[0] - 1) ** 2 + (x[1] - 1) ** 2 : Infinity);
+    // Minimum 0 at (1.4, 1.4) inside the finite region x + y < 3, close enough to its edge that the
+    // simplex steps across it (elementary)
+    const f = (x: Float64Array) => (x[0] + x[1] < 3 ? (x[0] - 1.4) ** 2 + (x[1] - 1.4) ** 2 : Infinity);
     const result = minimizeBounded(f, [{ start: 0, min: -2, max: 4 }, { start: 0, min: -2, max: 4 }]);
     expect(result.converged).toBe(true);
     expect(result.value).toBeLessThan(1e-12);
@@ -235,10 +236,39 @@ describe('minimizeBounded, several parameters (Nelder–Mead)', () => {
     c.forEach((ci, i) => expect(Math.abs(result.x[i] - ci)).toBeLessThan(1e-6));
   });
 
+  it('hands the coarse simplex to the Newton polish, which lands on the minimum of a flat valley', () => {
+    // 1/2 (x-c)^T A (x-c) + 1/2 with an ill-conditioned A (eigenvalues about 2.3 and 0.045): minimum 1/2 at c (common practice)
+    const a = [[1.664, -1.0342], [-1.0342, 0.70679]];
+    const c = [0.8, 0.27];
+    const ranges = [{ start: 5, min: 0.01, max: 10 }, { start: 0.9, min: -1, max: 1 }];
+    const result = minimizeBounded(quadratic(a, c, 0.5), ranges);
+    expect(result.converged).toBe(true);
+    expect(result.resumed).toBe(false);
+    expect(result.polishSteps).toBeGreaterThanOrEqual(1);
+    expect(relativeError(result.value, 0.5)).toBeLessThan(1e-14);
+    c.forEach((ci, i) => expect(Math.abs(result.x[i] - ci)).toBeLessThan(1e-7));
+    // The simplex driven all the way down costs more evaluations and gets no closer.
+    const simplexOnly = minimizeBounded(quadratic(a, c, 0.5), ranges, { searchFTol: DEFAULTS.fTol });
+    expect(simplexOnly.converged).toBe(true);
+    expect(result.evaluations).toBeLessThan(simplexOnly.evaluations);
+  });
+
+  it('resumes the simplex down to fTol where Newton cannot certify the minimum', () => {
+    // 1 + |x - 0.3|^1.5 + |y + 0.2|^1.5: minimum 1 at (0.3, -0.2) (elementary). Its curvature is
+    // infinite there, so a quadratic model at the finite-difference scale mispredicts what a Newton
+    // step gains, and only the simplex, which compares values, can settle the point to fTol.
+    const f = (x: Float64Array) => 1 + Math.abs(x[0] - 0.3) ** 1.5 + Math.abs(x[1] + 0.2) ** 1.5;
+    const result = minimizeBounded(f, [{ start: 1, min: -2, max: 2 }, { start: 1, min: -2, max: 2 }]);
+    expect(result.resumed).toBe(true);
+    expect(result.converged).toBe(true);
+    expect(result.value - 1).toBeLessThan(1e-12);
+  });
+
   it('rejects malformed ranges', () => {
     expect(() => minimizeBounded(harmonic, [])).toThrow(RangeError);
     expect(() => minimizeBounded(harmonic, [{ start: 0, min: 1, max: 0 }])).toThrow(RangeError);
     expect(() => minimizeBounded(harmonic, [{ start: 5, min: 0, max: 1 }])).toThrow(RangeError);
     expect(() => minimizeBounded(harmonic, [{ start: 0, min: 0, max: Infinity }])).toThrow(RangeError);
+    expect(() => minimizeBounded(harmonic, [{ start: 1, min: 0.01, max: 100 }], { searchFTol: 0 })).toThrow(RangeError);
   });
 });

@@ -249,4 +249,55 @@ describe('integrateVector', () => {
     expect(() => integrateVector(f, 1, { breakpoints: [-Infinity, -Infinity, 0] })).toThrow(RangeError);
     expect(() => integrateVector(f, 1, { breakpoints: [0, 1], relTol: 0, absTol: 0 })).toThrow(RangeError);
   });
+
+  describe('started from the partition of an earlier run', () => {
+    // exp(-a x^2) over the line is sqrt(pi/a): twice DLMF 7.4.1 (from memory)
+    const gaussian = (a: number): VectorIntegrand => (x, out) => { out[0] = Math.exp(-a * x * x); };
+    const line = { breakpoints: [-Infinity, 0, Infinity], scale: 2 };
+
+    it('reports the panels it ended with, covering every segment once', () => {
+      const result = integrateVector(gaussian(1), 1, line);
+      const { segments, panels } = result.partition;
+      expect(segments).toBe(2);
+      expect(panels.length / 3).toBe(result.intervals);
+      for (let segment = 0; segment < segments; segment++) {
+        const pieces: Array<[number, number]> = [];
+        for (let p = 0; p < panels.length; p += 3) if (panels[p] === segment) pieces.push([panels[p + 1], panels[p + 2]]);
+        pieces.sort((u, v) => u[0] - v[0]);
+        expect(pieces[0][0]).toBe(0);
+        expect(pieces[pieces.length - 1][1]).toBe(1);
+        pieces.slice(1).forEach((piece, i) => expect(piece[0]).toBe(pieces[i][1]));
+      }
+    });
+
+    it('meets the same tolerance at a nearby integrand as a fresh run, evaluating only the leaves', () => {
+      const start = integrateVector(gaussian(1), 1, line).partition;
+      for (const a of [0.8, 1.1, 1.5]) {
+        const fresh = integrateVector(gaussian(a), 1, line);
+        const warm = integrateVector(gaussian(a), 1, { ...line, start });
+        expect(warm.converged).toBe(true);
+        expect(relativeError(warm.values[0], Math.sqrt(Math.PI / a))).toBeLessThan(1e-14);
+        expect(warm.errorEstimates[0]).toBeLessThanOrEqual(DEFAULTS.relTol * warm.absValues[0]);
+        expect(Math.abs(warm.values[0] - fresh.values[0])).toBeLessThanOrEqual(warm.errorEstimates[0] + fresh.errorEstimates[0]);
+        expect(warm.evaluations).toBeLessThan(fresh.evaluations);
+      }
+    });
+
+    it('bisects further where the earlier panels no longer suffice', () => {
+      // Panels fitted to a Gaussian a hundred times wider, then one a hundred times narrower.
+      const start = integrateVector(gaussian(1e-4), 1, line).partition;
+      const result = integrateVector(gaussian(1), 1, { ...line, start });
+      expect(result.converged).toBe(true);
+      expect(relativeError(result.values[0], SQRT_PI)).toBeLessThan(1e-14);
+      expect(result.intervals).toBeGreaterThan(start.panels.length / 3);
+    });
+
+    it('ignores a partition made for a different number of segments', () => {
+      const start = integrateVector(gaussian(1), 1, { breakpoints: [-Infinity, -1, 1, Infinity], scale: 2 }).partition;
+      const fresh = integrateVector(gaussian(1.2), 1, line);
+      const given = integrateVector(gaussian(1.2), 1, { ...line, start });
+      expect(given.evaluations).toBe(fresh.evaluations);
+      expect(given.values[0]).toBe(fresh.values[0]);
+    });
+  });
 });
