@@ -2,7 +2,7 @@ import { findBreakpoints } from './breakpoints.ts';
 import { claimChecks, optimiserChecks, referenceChecks } from './checks.ts';
 import { domainOf } from './domain.ts';
 import { groundOverlap, invalidResult, type EngineResult } from './evaluate-problem.ts';
-import { g } from './format.ts';
+import { ATOMIC_DISPLAY, g } from './format.ts';
 import { gridReference } from './grid-reference.ts';
 import { optimiseLinearBasis, solveLinearBasis, type LinearBasisProblem, type LinearBasisResult } from './linear-basis.ts';
 import type { MinimizeResult } from './minimize.ts';
@@ -23,6 +23,7 @@ export function evaluateBasisProblem(problem: BasisProblem): EngineResult {
   const domain = domainOf(problem.space, problem.box);
   const start = problem.parameters.map((p) => p.start);
   const counts = { energyEvaluations: 0, trialEvaluations: 0 };
+  const show = problem.display ?? ATOMIC_DISPLAY;
   const { functions, setParameters, switches } = problem.basis;
 
   // Kinks of the potential and of the basis are searched for where the basis lives at the start values.
@@ -72,7 +73,7 @@ export function evaluateBasisProblem(problem: BasisProblem): EngineResult {
     gradedCheck(
       'integrals-converged',
       relError <= ENERGY_RELATIVE_ERROR_LIMIT,
-      `lowest level's error estimate from the matrix elements ${g(ground.errorEstimate, 3)} (${g(relError, 3)} relative; limit ${ENERGY_RELATIVE_ERROR_LIMIT})`,
+      `lowest level's error estimate from the matrix elements ${show.energy(ground.errorEstimate, 3)} (${g(relError, 3)} relative; limit ${ENERGY_RELATIVE_ERROR_LIMIT})`,
       'unsettled',
     ),
   );
@@ -99,7 +100,7 @@ export function evaluateBasisProblem(problem: BasisProblem): EngineResult {
         gradedCheck(
           `above-grid-level-${k}`,
           levels[k].energy >= exact - slack,
-          `E${k} - E${k}(grid) = ${g(levels[k].energy - exact, 4)} (must be >= -${g(slack, 2)}: each level is an upper bound to the exact level of its index)`,
+          `E${k} - E${k}(grid) = ${show.energy(levels[k].energy - exact, 4)} (must be >= -${show.energy(slack, 2)}: each level is an upper bound to the exact level of its index)`,
           'below-reference',
         ),
       );

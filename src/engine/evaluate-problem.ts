@@ -4,7 +4,7 @@ import { claimChecks, optimiserChecks, referenceChecks } from './checks.ts';
 import { COMPARISON_FLOOR, ENERGY_RELATIVE_ERROR_LIMIT, WALL_TOLERANCE } from './tolerances.ts';
 import { domainOf, type Domain } from './domain.ts';
 import { expectation, placedExpectation, searchExpectation, type Expectation } from './expectation.ts';
-import { g } from './format.ts';
+import { ATOMIC_DISPLAY, g, type ValueDisplay } from './format.ts';
 import type { GridLevels } from './grid-levels.ts';
 import { gridReference } from './grid-reference.ts';
 import { minimizeBounded, type MinimizeResult } from './minimize.ts';
@@ -59,6 +59,7 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
   const domain = domainOf(problem.space, problem.box);
   const start = problem.parameters.map((p) => p.start);
   const counts = { energyEvaluations: 0, trialEvaluations: 0 };
+  const show = problem.display ?? ATOMIC_DISPLAY;
   problem.trial.setParameters(start);
 
   // The potential's kinks are searched for around where the trial lives, once for the whole search.
@@ -87,7 +88,7 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
     gradedCheck(
       'integrals-converged',
       relError <= ENERGY_RELATIVE_ERROR_LIMIT,
-      `energy quadrature error estimate ${g(optimum.errorEstimate, 3)} (${g(relError, 3)} relative; limit ${ENERGY_RELATIVE_ERROR_LIMIT})`,
+      `energy quadrature error estimate ${show.energy(optimum.errorEstimate, 3)} (${g(relError, 3)} relative; limit ${ENERGY_RELATIVE_ERROR_LIMIT})`,
       'unsettled',
     ),
   );
@@ -103,7 +104,7 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
   const nextLevel = grid ? (grid.levels.length > 1 ? grid.levels[1] : grid.threshold) : null;
   const lower = templeBound(energy, variance.value, nextLevel);
   const overlap = grid ? groundOverlap(problem.trial.value, domain, grid, optimum.norm) : null;
-  if (grid && grid.converged) checks.push(...boundChecks(energy, lower, overlap, grid, nextLevel, tolerance + 10 * (grid.errorEstimate[0] ?? 0)));
+  if (grid && grid.converged) checks.push(...boundChecks(energy, lower, overlap, grid, nextLevel, tolerance + 10 * (grid.errorEstimate[0] ?? 0), show));
   if (problem.claim) checks.push(...claimChecks(problem, energy, best));
 
   const { status, message } = statusOf(checks);
@@ -163,7 +164,7 @@ function trialChecks(problem: VariationalProblem, domain: Domain, at: Expectatio
   const nonFinite = at.failure === 'non-finite' ? findNonFiniteFactor(problem.potential, problem.trial, domain) : null;
   const checks = [
     nonFinite
-      ? gradedCheck('finite-integrands', false, `at ${where}: ${nonFinite}`, 'invalid')
+      ? gradedCheck('finite-integrands', false, `at ${where}: ${nonFinite.detail}`, 'invalid', nonFinite.culprit === 'potential' ? 'potential' : undefined)
       : gradedCheck(
           'normalisable',
           at.failure === null,
@@ -187,7 +188,7 @@ function trialChecks(problem: VariationalProblem, domain: Domain, at: Expectatio
   return checks;
 }
 
-function boundChecks(energy: number, lower: number | null, overlap: number | null, grid: GridLevels, nextLevel: number | null, tolerance: number): GradedCheck[] {
+function boundChecks(energy: number, lower: number | null, overlap: number | null, grid: GridLevels, nextLevel: number | null, tolerance: number, show: ValueDisplay): GradedCheck[] {
   const checks: GradedCheck[] = [];
   const e0 = grid.levels[0];
   if (lower !== null) {
@@ -195,7 +196,7 @@ function boundChecks(energy: number, lower: number | null, overlap: number | nul
       gradedCheck(
         'temple-below-grid',
         lower <= e0 + tolerance,
-        `Temple's lower bound ${g(lower)} against E0(grid) ${g(e0)} (with E1 = ${g(nextLevel ?? NaN)})`,
+        `Temple's lower bound ${show.energy(lower)} against E0(grid) ${show.energy(e0)} (with E1 = ${show.energy(nextLevel ?? NaN)})`,
         'unsettled',
       ),
     );

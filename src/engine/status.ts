@@ -11,10 +11,12 @@ export interface Check {
 /** A check and the status its failure gives the block. */
 export interface GradedCheck extends Check {
   failure: Exclude<Status, 'confirmed'>;
+  /** The block field a failure points at, when it is not the trial (or basis) itself. */
+  field?: 'potential';
 }
 
-export function gradedCheck(name: string, pass: boolean, detail: string, failure: GradedCheck['failure']): GradedCheck {
-  return { name, pass, detail, failure };
+export function gradedCheck(name: string, pass: boolean, detail: string, failure: GradedCheck['failure'], field?: GradedCheck['field']): GradedCheck {
+  return field ? { name, pass, detail, failure, field } : { name, pass, detail, failure };
 }
 
 /** The first status in STATUS_ORDER that a failing check calls for, and the reasons for it. */

@@ -56,7 +56,13 @@ function densityBuffer(size: number): Float64Array {
  * trial's derivative, in that order, each at the probe point nearest the trial's peak. A diagnosis
  * for when the quadrature met one, so the message can say which input is at fault and where.
  */
-export function findNonFiniteFactor(potential: (x: number) => number, trial: TrialFamily, domain: Domain): string | null {
+/** Which input a non-finite integrand comes from, and what it was there. */
+export interface NonFiniteFactor {
+  culprit: 'trial' | 'potential';
+  detail: string;
+}
+
+export function findNonFiniteFactor(potential: (x: number) => number, trial: TrialFamily, domain: Domain): NonFiniteFactor | null {
   const coordinate = domain.radial ? 'r' : 'x';
   const samples = probePoints(domain).map((x) => ({ x, psi: trial.value(x) }));
   let peak = { x: 0, psi: 0 };
@@ -65,17 +71,20 @@ export function findNonFiniteFactor(potential: (x: number) => number, trial: Tri
   const at = (x: number) => `${coordinate} = ${g(x, 6)}`;
 
   const bad = samples.find((p) => !Number.isFinite(p.psi));
-  if (bad) return `the trial is ${g(bad.psi)} at ${at(bad.x)} (${Number.isNaN(bad.psi) ? 'it is not defined there' : 'a trial that overflows is not square-integrable'})`;
+  if (bad) return { culprit: 'trial', detail: `the trial is ${g(bad.psi)} at ${at(bad.x)} (${Number.isNaN(bad.psi) ? 'it is not defined there' : 'a trial that overflows is not square-integrable'})` };
   for (const { x, psi } of samples) {
     // Where the trial is 0 the potential does not enter the integrand (a wall far out may overflow).
     const v = psi === 0 ? 0 : potential(x);
     if (!Number.isFinite(v * psi * psi)) {
-      return `V |psi|^2 is not a finite number at ${at(x)} (the potential there is ${g(v)}, the trial ${g(psi, 4)}); the potential must be finite wherever the trial lives`;
+      return {
+        culprit: 'potential',
+        detail: `V |psi|^2 is not a finite number at ${at(x)} (the potential there is ${g(v)}, the trial ${g(psi, 4)}); the potential must be finite wherever the trial lives`,
+      };
     }
   }
   for (const { x, psi } of samples) {
     const slope = trial.d1(x);
-    if (!Number.isFinite(slope)) return `the trial's derivative is ${g(slope)} at ${at(x)} (the trial there is ${g(psi, 4)}); write the trial so that no intermediate value overflows`;
+    if (!Number.isFinite(slope)) return { culprit: 'trial', detail: `the trial's derivative is ${g(slope)} at ${at(x)} (the trial there is ${g(psi, 4)}); write the trial so that no intermediate value overflows` };
   }
   return null;
 }

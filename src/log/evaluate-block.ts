@@ -73,9 +73,15 @@ function toBlockResult(file: string, spec: BlockSpec, inputs: BlockInputs, engin
   for (const p of engine.parameters) parameters[p.name] = { value: p.value, unit: null, varied: true };
   for (const [name, value] of Object.entries(spec.fixed)) parameters[name] = { value, unit: null, varied: false };
   const relative = (reference: number | null) => (engine.energy === null || reference === null ? null : (engine.energy - reference) / Math.abs(reference));
-  // Invalid results carry the failing check's location: the trial field of the block.
+  // Invalid results carry the failing check's location: the potential when the fault is traced there, else the trial or basis.
   const problems: SpecProblem[] =
-    engine.status === 'invalid' ? engine.checks.filter((c) => !c.pass).map((c) => ({ file, line: (spec.trial ?? spec.basis![0]).line, block: spec.id, field: spec.trial ? 'trial' : 'basis', message: c.detail })) : [];
+    engine.status === 'invalid' ? engine.checks
+          .filter((c) => !c.pass)
+          .map((c) =>
+            c.field === 'potential'
+              ? { file, line: spec.potential.line, block: spec.id, field: 'potential', message: c.detail }
+              : { file, line: (spec.trial ?? spec.basis![0]).line, block: spec.id, field: spec.trial ? 'trial' : 'basis', message: c.detail },
+          ) : [];
   return {
     id: spec.id,
     line: spec.line,

@@ -38,6 +38,7 @@ export function provenance(): Provenance {
       wallTolerance: WALL_TOLERANCE,
       optimiserParameterTol: MINIMIZE_DEFAULTS.xTol,
       optimiserEnergyTol: MINIMIZE_DEFAULTS.fTol,
+      optimiserSearchTol: MINIMIZE_DEFAULTS.searchFTol,
       optimiserMaxEvaluations: MINIMIZE_DEFAULTS.maxEvaluations,
       gridRelTol: GRID_DEFAULTS.relTol,
       gridMaxNodes: GRID_DEFAULTS.maxNodes,

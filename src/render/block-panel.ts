@@ -43,7 +43,6 @@ export function renderBlockPanel(result: BlockResult, context: PanelContext): st
   });
   if (plots.length > 0) parts.push(`<div class="gw-plots">${plots.join('\n')}</div>`);
   if (result.checks.length > 0) {
-    if (result.quantity) parts.push(`<p class="gw-note">Results are stated in ${escapeHtml(result.quantity.energy.unit)} and ${escapeHtml(result.quantity.length.unit)}; the checks below computed in atomic units (hartree, bohr).</p>`);
     parts.push(renderChecks(result));
   }
   parts.push(renderAudit(result, context));

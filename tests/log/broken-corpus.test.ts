@@ -38,8 +38,8 @@ const on = (field: string | null, at: string): ExpectedProblem => ({ field, at }
 /** A block of the fixtures' standard harmonic well, x^2/2 with exp(-a x^2), which must confirm. */
 const healthy = (id: string): ExpectedBlock => ({ id, status: 'confirmed', message: '' });
 
-// Failed checks of the evaluation itself are filed under the trial field by src/log/evaluate-block.ts
-// even when the message traces the fault to the potential (nan-potential, overflowing-potential).
+// Failed checks of the evaluation itself are filed under the trial field, or under the potential when
+// the fault is traced there (nan-potential, overflowing-potential).
 const EXPECTED: Record<string, Expected> = {
   // YAML and structure
   'yaml-colon-unquoted': { blocks: [invalid('well-t1', "a value holds ': ' (quote an expression", on('potential', 'potential: abs(x)'))] },
@@ -88,8 +88,8 @@ const EXPECTED: Record<string, Expected> = {
   // exp(exp(x)) passes the largest double (about 1.8e308, IEEE 754) once exp(x) > 709.78, at x > 6.565.
   'overflowing-trial': { blocks: [invalid('overflow-w5', 'the trial is Infinity at x = ', on('trial', 'trial: exp(exp(x))'))] },
   // sqrt of a negative number is NaN (IEEE 754; ECMAScript Math.sqrt).
-  'nan-potential': { blocks: [invalid('sqrt-w6', 'the potential there is NaN', on('trial', 'trial:'))] },
-  'overflowing-potential': { blocks: [invalid('steep-w7', 'the potential there is Infinity', on('trial', 'trial:'))] },
+  'nan-potential': { blocks: [invalid('sqrt-w6', 'the potential there is NaN', on('potential', 'potential:'))] },
+  'overflowing-potential': { blocks: [invalid('steep-w7', 'the potential there is Infinity', on('potential', 'potential:'))] },
   'trial-without-coordinate': { blocks: [invalid('flat-w8', 'the trial does not depend on the coordinate x', on('trial', 'trial: exp(-a)'))] },
   'wrong-coordinate': { blocks: [invalid('radial-w9', 'the coordinate of space radial is r', on('trial', 'trial: exp(-a*x)'))] },
   'varied-parameter-unused': { blocks: [invalid('unused-w10', 'parameter b is varied but the trial does not use it', on('parameters.b', '  b: {'))] },
