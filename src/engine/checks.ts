@@ -19,7 +19,7 @@ export function optimiserChecks(problem: CheckedProblem, optimiser: MinimizeResu
       'optimiser-converged',
       optimiser.converged,
       optimiser.converged
-        ? `${optimiser.method} converged in ${optimiser.iterations} iterations, ${optimiser.evaluations} energy evaluations`
+        ? `${optimiser.method} converged in ${optimiser.iterations} iterations, ${optimiser.evaluations} energy evaluations${optimiser.starts > 1 ? ' (a second search from a multistart point)' : ''}`
         : `${optimiser.method} did not converge: ${optimiser.message ?? 'no reason given'}`,
       'unsettled',
     ),

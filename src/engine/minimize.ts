@@ -24,6 +24,7 @@ export interface MinimizeResult {
   iterations: number;
   polishSteps: number;          // accepted Newton steps
   resumed: boolean;              // the polish could not certify the coarse search's point, so the simplex went on to fTol
+  starts: number;                // local searches run: 1, or 2 when a quasi-random point far from the first optimum started a second
   converged: boolean;            // the search met its tolerances and the curvature is available
   method: 'brent' | 'nelder-mead';
   activeLimits: Array<'min' | 'max' | null>;
@@ -60,6 +61,10 @@ export const DEFAULTS = {
   searchFTol: 1e-7,
   // Restarts from the best vertex catch a simplex that has collapsed without reaching a minimum.
   restarts: 3,
+  // Quasi-random points tried after the first local search of several parameters, to find a lower basin;
+  // only points at least this far (fraction of a range) from the first optimum along some parameter count.
+  multistartPoints: 12,
+  multistartSeparation: 0.1,
   polishIterations: 8,
   // A parameter this close to a bound (fraction of its range) is tried exactly at the bound.
   snapFraction: 1e-4,
@@ -489,30 +494,69 @@ export function minimizeBounded(
 ): MinimizeResult {
   const settings = validate(ranges, options);
   const objective = new Objective(f, settings.maxEvaluations);
-  const method = ranges.length === 1 ? 'brent' : 'nelder-mead';
-  let search: SearchOutcome;
-  let resumed = false;
-  if (method === 'brent') {
-    search = brent(objective, ranges[0], settings);
-  } else {
-    const start = Float64Array.from(ranges, (r) => r.start);
-    const coarse = settings.searchFTol > settings.fTol;
-    search = nelderMead(objective, ranges, coarse ? { ...settings, fTol: settings.searchFTol } : settings, start, objective.at(start), coarse ? 0 : DEFAULTS.restarts);
-    if (coarse && search.converged && Number.isFinite(search.value) && !objective.exhausted) {
-      // Newton's end point is off the minimum by the gradient's error over the curvature, which a
-      // flat valley magnifies; the five-point gradient keeps that below the resolution of f.
-      const first = polish(objective, ranges, settings, search.x, search.value, true);
-      if (first.certified) return result(objective, ranges, method, search, first, false);
-      if (objective.exhausted) {
-        const message = `evaluation limit ${objective.evaluations} reached before the point of the coarse search could be polished to a certified minimum`;
-        return result(objective, ranges, method, { ...search, converged: false, message }, first, false);
-      }
-      const iterations = search.iterations;
-      search = nelderMead(objective, ranges, settings, first.x, first.value, DEFAULTS.restarts);
-      search = { ...search, iterations: iterations + search.iterations };
-      resumed = true;
-    }
+  if (ranges.length === 1) {
+    const search = brent(objective, ranges[0], settings);
+    return finish(objective, ranges, 'brent', search, settings, false);
   }
+  const start = Float64Array.from(ranges, (r) => r.start);
+  const first = localNelderMead(objective, ranges, settings, start);
+  if (!Number.isFinite(first.value) || objective.exhausted) return { ...first, starts: 1 };
+  // Multistart (Rinnooy Kan & Timmer, Math. Program. 39, 27 (1987)): a local search from the author's start can stop in
+  // a basin that is not the lowest. The best of a few quasi-random points away from the first optimum starts a coarse
+  // second search; only if that ends lower is it polished and taken.
+  const unit = (x: ArrayLike<number>) => Array.from(x, (v, d) => toUnit(v, ranges[d]));
+  const home = unit(first.x);
+  let seed: { x: Float64Array; value: number } | null = null;
+  for (const x of haltonPoints(ranges, DEFAULTS.multistartPoints)) {
+    if (objective.exhausted) break;
+    const away = unit(x).some((u, d) => Math.abs(u - home[d]) > DEFAULTS.multistartSeparation);
+    if (!away) continue;
+    const value = objective.at(x);
+    if (value < (seed?.value ?? Infinity)) seed = { x, value };
+  }
+  if (!seed || !Number.isFinite(seed.value) || objective.exhausted) return { ...first, evaluations: objective.evaluations, starts: 1 };
+  const scout = nelderMead(objective, ranges, { ...settings, fTol: settings.searchFTol }, seed.x, seed.value, 0);
+  const margin = 10 * settings.fTol * Math.max(1, Math.abs(first.value));
+  if (!(scout.value < first.value - margin) || objective.exhausted) return { ...first, evaluations: objective.evaluations, starts: 2 };
+  const second = localNelderMead(objective, ranges, settings, scout.x);
+  const best = second.value < first.value ? second : first;
+  return { ...best, evaluations: objective.evaluations, iterations: first.iterations + scout.iterations + second.iterations, starts: 2 };
+}
+
+/** A parameter's place in its range on [0, 1]: logarithmic along a positive range of two decades or more. */
+function toUnit(value: number, range: ParameterRange): number {
+  return logScaled(range) ? Math.log(value / range.min) / Math.log(range.max / range.min) : (value - range.min) / (range.max - range.min);
+}
+
+function logScaled(range: ParameterRange): boolean {
+  return range.min > 0 && range.max / range.min >= 100;
+}
+
+/** Nelder–Mead to the coarse tolerance, Newton's polish, and the full simplex again when the polish cannot certify. */
+function localNelderMead(objective: Objective, ranges: ParameterRange[], settings: Settings, start: Float64Array): MinimizeResult {
+  const method = 'nelder-mead';
+  const coarse = settings.searchFTol > settings.fTol;
+  let search = nelderMead(objective, ranges, coarse ? { ...settings, fTol: settings.searchFTol } : settings, start, objective.at(start), coarse ? 0 : DEFAULTS.restarts);
+  let resumed = false;
+  if (coarse && search.converged && Number.isFinite(search.value) && !objective.exhausted) {
+    // Newton's end point is off the minimum by the gradient's error over the curvature, which a
+    // flat valley magnifies; the five-point gradient keeps that below the resolution of f.
+    const first = polish(objective, ranges, settings, search.x, search.value, true);
+    if (first.certified) return result(objective, ranges, method, search, first, false);
+    if (objective.exhausted) {
+      const message = `evaluation limit ${objective.evaluations} reached before the point of the coarse search could be polished to a certified minimum`;
+      return result(objective, ranges, method, { ...search, converged: false, message }, first, false);
+    }
+    const iterations = search.iterations;
+    search = nelderMead(objective, ranges, settings, first.x, first.value, DEFAULTS.restarts);
+    search = { ...search, iterations: iterations + search.iterations };
+    resumed = true;
+  }
+  return finish(objective, ranges, method, search, settings, resumed);
+}
+
+/** The search's end point polished and measured, or reported as unusable when f was never finite. */
+function finish(objective: Objective, ranges: ParameterRange[], method: MinimizeResult['method'], search: SearchOutcome, settings: Settings, resumed: boolean): MinimizeResult {
   if (!Number.isFinite(search.value)) {
     const unknown = () => ranges.map(() => NaN);
     const derivatives = { gradient: unknown(), hessian: ranges.map(unknown), finite: false };
@@ -521,11 +565,30 @@ export function minimizeBounded(
   return result(objective, ranges, method, search, polish(objective, ranges, settings, search.x, search.value), resumed);
 }
 
+/**
+ * Halton points (bases 2, 3, 5, ...; Halton, Numer. Math. 2, 84 (1960)) over the box, on a log scale along a
+ * positive range spanning two decades or more, where a width or rate parameter's basins are spread.
+ */
+function haltonPoints(ranges: ParameterRange[], count: number): Float64Array[] {
+  const primes = [2, 3, 5, 7, 11, 13, 17, 19, 23, 29, 31, 37];
+  const radical = (k: number, base: number) => {
+    let value = 0;
+    for (let f = 1 / base; k > 0; k = Math.floor(k / base), f /= base) value += f * (k % base);
+    return value;
+  };
+  return Array.from({ length: count }, (_, k) =>
+    Float64Array.from(ranges, (r, d) => {
+      const u = radical(k + 1, primes[d % primes.length]);
+      return logScaled(r) ? r.min * (r.max / r.min) ** u : r.min + u * (r.max - r.min);
+    }),
+  );
+}
+
 function result(objective: Objective, ranges: ParameterRange[], method: MinimizeResult['method'], search: SearchOutcome, polished: Polished, resumed: boolean): MinimizeResult {
   const { x, value, derivatives } = polished;
   const message = derivatives.finite ? null : 'f is not finite within a finite-difference step of the optimum, so the curvature is unavailable';
   return {
-    x, value, evaluations: objective.evaluations, iterations: search.iterations, polishSteps: polished.steps, resumed,
+    x, value, evaluations: objective.evaluations, iterations: search.iterations, polishSteps: polished.steps, resumed, starts: 1,
     converged: search.converged && message === null, method,
     activeLimits: activeLimitsOf(x, ranges, derivatives.gradient),
     hessian: derivatives.hessian, gradient: derivatives.gradient, rejectedEvaluations: objective.rejected,

@@ -124,6 +124,7 @@ function toBlockResult(file: string, spec: BlockSpec, inputs: BlockInputs, engin
             iterations: engine.optimiser.iterations,
             evaluations: engine.optimiser.evaluations,
             converged: engine.optimiser.converged,
+            starts: engine.optimiser.starts,
             activeLimits: engine.optimiser.activeLimits,
             curvature: engine.optimiser.hessian,
           }

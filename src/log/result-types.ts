@@ -63,7 +63,7 @@ export interface BlockResult {
   plots: PlotData | null;
   diagnostics: {
     energyError: number | null;
-    optimiser: { method: string; iterations: number; evaluations: number; converged: boolean; activeLimits: Array<'min' | 'max' | null>; curvature: number[][] } | null;
+    optimiser: { method: string; iterations: number; evaluations: number; converged: boolean; starts: number; activeLimits: Array<'min' | 'max' | null>; curvature: number[][] } | null;
     grid: { size: number; elements: number; elementOrder: number; refinements: number; domain: [number, number]; errorEstimate: number[]; converged: boolean } | null;
     energyEvaluations: number;
     trialEvaluations: number;

@@ -126,7 +126,7 @@ function renderAudit(result: BlockResult, context: PanelContext): string {
   }
   if (d) {
     items.push(`energy evaluations ${d.energyEvaluations}, trial evaluations ${d.trialEvaluations}, plot evaluations ${d.plotEvaluations}`);
-    if (d.optimiser) items.push(`optimiser ${escapeHtml(d.optimiser.method)}: ${d.optimiser.iterations} iterations, ${d.optimiser.evaluations} evaluations, converged ${d.optimiser.converged}`);
+    if (d.optimiser) items.push(`optimiser ${escapeHtml(d.optimiser.method)}: ${d.optimiser.iterations} iterations, ${d.optimiser.evaluations} evaluations, ${d.optimiser.starts} local search${d.optimiser.starts > 1 ? 'es' : ''}, converged ${d.optimiser.converged}`);
     if (d.grid) items.push(`grid: ${d.grid.size} points, ${d.grid.elements} elements of order ${d.grid.elementOrder}, ${d.grid.refinements} refinements, domain [${formatNumber(d.grid.domain[0], 6)}, ${formatNumber(d.grid.domain[1], 6)}], last change ${d.grid.errorEstimate.map((e) => formatNumber(e, 2)).join(', ')}`);
     if (d.energyError !== null) items.push(`quadrature error estimate of E ${formatNumber(d.energyError, 3)}`);
   }

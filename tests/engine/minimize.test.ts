@@ -271,4 +271,25 @@ describe('minimizeBounded, several parameters (Nelder–Mead)', () => {
     expect(() => minimizeBounded(harmonic, [{ start: 0, min: 0, max: Infinity }])).toThrow(RangeError);
     expect(() => minimizeBounded(harmonic, [{ start: 1, min: 0.01, max: 100 }], { searchFTol: 0 })).toThrow(RangeError);
   });
+
+  it('leaves a higher basin it started in for a lower one found by multistart', () => {
+    // A tilted double well along x with a valley y = x: minima near (+1, +1) and (-1, -1), the second lower by about
+    // 0.2 from the tilt 0.1 x (common practice: a two-basin test of a multistart method, Rinnooy Kan & Timmer,
+    // Math. Program. 39, 27 (1987)). The start sits in the bottom of the higher basin.
+    const f = (p: Float64Array) => (p[0] * p[0] - 1) ** 2 + (p[1] - p[0]) ** 2 + 0.1 * p[0];
+    const ranges = [{ start: 1, min: -2, max: 2 }, { start: 1, min: -2, max: 2 }];
+    const result = minimizeBounded(f, ranges);
+    expect(result.starts).toBe(2);
+    expect(result.converged).toBe(true);
+    // At the minimum y = x and x solves 4x^3 - 4x + 0.1 = 0 at its lowest root (bisection below gives it to 1e-12).
+    let lo = -1.2;
+    let hi = -0.9;
+    for (let i = 0; i < 100; i++) {
+      const mid = (lo + hi) / 2;
+      if (4 * mid ** 3 - 4 * mid + 0.1 > 0) hi = mid;
+      else lo = mid;
+    }
+    expect(result.x[0]).toBeCloseTo(lo, 5);
+    expect(result.x[1]).toBeCloseTo(lo, 5);
+  });
 });
