@@ -65,6 +65,8 @@ export const DEFAULTS = {
   // only points at least this far (fraction of a range) from the first optimum along some parameter count.
   multistartPoints: 12,
   multistartSeparation: 0.1,
+  // The second search only has to tell whether its basin is lower; it is finished properly only if so.
+  scoutFTol: 1e-5,
   polishIterations: 8,
   // A parameter this close to a bound (fraction of its range) is tried exactly at the bound.
   snapFraction: 1e-4,
@@ -515,10 +517,12 @@ export function minimizeBounded(
     if (value < (seed?.value ?? Infinity)) seed = { x, value };
   }
   if (!seed || !Number.isFinite(seed.value) || objective.exhausted) return { ...first, evaluations: objective.evaluations, starts: 1 };
-  const scout = nelderMead(objective, ranges, { ...settings, fTol: settings.searchFTol }, seed.x, seed.value, 0);
+  const scout = nelderMead(objective, ranges, { ...settings, fTol: DEFAULTS.scoutFTol }, seed.x, seed.value, 0);
   const margin = 10 * settings.fTol * Math.max(1, Math.abs(first.value));
   if (!(scout.value < first.value - margin) || objective.exhausted) return { ...first, evaluations: objective.evaluations, starts: 2 };
-  const second = localNelderMead(objective, ranges, settings, scout.x);
+  // The scout is near its basin's bottom already: Newton's polish usually certifies it without more simplex work.
+  const polished = polish(objective, ranges, settings, scout.x, scout.value, true);
+  const second = polished.certified ? result(objective, ranges, 'nelder-mead', scout, polished, false) : localNelderMead(objective, ranges, settings, polished.x);
   const best = second.value < first.value ? second : first;
   return { ...best, evaluations: objective.evaluations, iterations: first.iterations + scout.iterations + second.iterations, starts: 2 };
 }
