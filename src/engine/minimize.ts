@@ -65,8 +65,10 @@ export const DEFAULTS = {
   // only points at least this far (fraction of a range) from the first optimum along some parameter count.
   multistartPoints: 12,
   multistartSeparation: 0.1,
-  // The second search only has to tell whether its basin is lower; it is finished properly only if so.
+  // The second search only has to tell whether its basin is lower, within a small budget; it is finished
+  // properly only if so.
   scoutFTol: 1e-5,
+  scoutEvaluations: 30,
   polishIterations: 8,
   // A parameter this close to a bound (fraction of its range) is tried exactly at the bound.
   snapFraction: 1e-4,
@@ -95,6 +97,14 @@ class Objective {
   constructor(private readonly f: (x: Float64Array) => number, private readonly limit: number) {}
   get exhausted(): boolean {
     return this.evaluations >= this.limit;
+  }
+  /** The same function with a budget of its own, for a search that may give up early; counted back by `absorb`. */
+  limited(evaluations: number): Objective {
+    return new Objective(this.f, evaluations);
+  }
+  absorb(child: Objective): void {
+    this.evaluations += child.evaluations;
+    this.rejected += child.rejected;
   }
   at(x: ArrayLike<number>): number {
     this.evaluations++;
@@ -517,12 +527,17 @@ export function minimizeBounded(
     if (value < (seed?.value ?? Infinity)) seed = { x, value };
   }
   if (!seed || !Number.isFinite(seed.value) || objective.exhausted) return { ...first, evaluations: objective.evaluations, starts: 1 };
-  const scout = nelderMead(objective, ranges, { ...settings, fTol: DEFAULTS.scoutFTol }, seed.x, seed.value, 0);
+  const budget = objective.limited(DEFAULTS.scoutEvaluations);
+  const scout = nelderMead(budget, ranges, { ...settings, fTol: DEFAULTS.scoutFTol }, seed.x, seed.value, 0);
+  objective.absorb(budget);
   const margin = 10 * settings.fTol * Math.max(1, Math.abs(first.value));
   if (!(scout.value < first.value - margin) || objective.exhausted) return { ...first, evaluations: objective.evaluations, starts: 2 };
   // The scout is near its basin's bottom already: Newton's polish usually certifies it without more simplex work.
   const polished = polish(objective, ranges, settings, scout.x, scout.value, true);
-  const second = polished.certified ? result(objective, ranges, 'nelder-mead', scout, polished, false) : localNelderMead(objective, ranges, settings, polished.x);
+  // A certified polish shows the minimum to fTol, whether or not the scout used up its budget on the way.
+  const second = polished.certified
+    ? result(objective, ranges, 'nelder-mead', { ...scout, converged: true, message: null }, polished, false)
+    : localNelderMead(objective, ranges, settings, polished.x);
   const best = second.value < first.value ? second : first;
   return { ...best, evaluations: objective.evaluations, iterations: first.iterations + scout.iterations + second.iterations, starts: 2 };
 }
