@@ -1,15 +1,11 @@
 import { defineCollection, z } from 'astro:content';
-import { glob } from 'astro/loaders';
+import { RECORDS_FOLDER } from './site/records-folder.ts';
+import { recordFiles } from './site/records-loader.ts';
 
+// Only the file is known here; title, author, date and tags come from groundwork's own reading of each record.
 const records = defineCollection({
-  loader: glob({ pattern: '**/*.md', base: './content/records' }),
-  schema: z.object({
-    title: z.string(),
-    author: z.string(),
-    // YAML reads 2026-11-30 as a date; pages show it as written.
-    date: z.coerce.date().transform((d: Date) => d.toISOString().slice(0, 10)),
-    tags: z.array(z.string()).default([]),
-  }),
+  loader: recordFiles(RECORDS_FOLDER),
+  schema: z.object({ file: z.string() }),
 });
 
 export const collections = { records };

@@ -1,5 +1,6 @@
 import { execFileSync } from 'node:child_process';
-import { existsSync } from 'node:fs';
+import { copyFileSync, existsSync, mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import { readFile } from 'node:fs/promises';
 import { createServer, type Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
@@ -125,4 +126,24 @@ describe.runIf(run)('the demo log in a real browser', () => {
     // The page itself works: the panel is there with its plots.
     expect(await page.locator('.gw-panel[data-status="confirmed"] .gw-plots svg').count()).toBeGreaterThan(0);
   });
+});
+
+// A log is built from many colleagues' records: one whose front matter is not even YAML must not stop the others
+// (the project's rule for bad input). The site is built from a copy of the demo log plus such a record.
+describe('a site build with a broken record (in this file so that two Astro builds never run at once)', () => {
+  it('builds every other record and shows the broken one with its problem, file and line', () => {
+    const records = mkdtempSync(join(tmpdir(), 'groundwork-records-'));
+    const out = mkdtempSync(join(tmpdir(), 'groundwork-dist-'));
+    for (const name of readdirSync(join(ROOT, 'content/records'))) copyFileSync(join(ROOT, 'content/records', name), join(records, name));
+    writeFileSync(join(records, 'zz-broken.md'), '---\ntitle: [unclosed\nauthor: someone\ndate: 2026-12-01\n---\n\nThe front matter above is broken.\n');
+    execFileSync('npx', ['astro', 'build', '--outDir', out], { cwd: ROOT, stdio: 'pipe', env: { ...process.env, GROUNDWORK_RECORDS: records } });
+    const pages = readdirSync(join(out, 'records'));
+    expect(pages).toContain('zz-broken');
+    expect(pages).toContain('2026-11-donor-d7-radial');
+    const broken = readFileSync(join(out, 'records/zz-broken/index.html'), 'utf8');
+    expect(broken).toMatch(/zz-broken\.md:\d+/);
+    expect(broken).toContain('front matter is not valid YAML');
+    const healthy = readFileSync(join(out, 'records/2026-11-donor-d7-radial/index.html'), 'utf8');
+    expect(healthy).toContain('data-status="confirmed"');
+  }, 180_000);
 });

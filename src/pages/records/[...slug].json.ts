@@ -2,7 +2,7 @@ import type { APIRoute } from 'astro';
 import { logEntries } from '../../site/log-entries.ts';
 
 export async function getStaticPaths() {
-  return (await logEntries()).map(({ entry, page }) => ({ params: { slug: entry.id }, props: { result: page.result } }));
+  return (await logEntries()).map(({ id, page }) => ({ params: { slug: id }, props: { result: page.result } }));
 }
 
 /** The record's result as `groundwork check --json` gives it, next to its page. */
