@@ -1,9 +1,10 @@
 import { readdirSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
-import type { BlockEntry } from '../spec/types.ts';
+import { performance } from 'node:perf_hooks';
 import type { BlockTask } from './evaluate-task.ts';
 import { inputHash } from './input-hash.ts';
+import { invalidBlock, unparsedBlock } from './invalid-block.ts';
 import { loadLogConfig, type LogConfig } from './log-config.ts';
 import { readRecord, recordResult } from './read-record.ts';
 import { openResultCache, type SpecEntry } from './result-cache.ts';
@@ -12,9 +13,8 @@ import { TOOL_ROOT } from './tool-root.ts';
 import { TOOL_VERSION } from './tool-version.ts';
 import { createWorkerPool, type TaskOutcome } from './worker-pool.ts';
 
-// The workers do the evaluating. This thread loads the evaluator only when a block that did not
-// parse or did not finish needs a result made here: its expression library alone takes about a
-// second to load, which a cached run should not pay.
+// The workers do the evaluating; this thread never loads the evaluator, whose expression library alone
+// takes about a second to load, which a cached run should not pay.
 const TASK_MODULE = pathToFileURL(join(TOOL_ROOT, 'src', 'log', 'evaluate-task.ts'));
 // The expression library the evaluator is built on; workers load it ahead of the TypeScript loader.
 const PRELOAD = ['mathjs'];
@@ -82,24 +82,18 @@ export async function checkLog(files: string[], options: CheckLogOptions = {}): 
   const read = files.map((file) => readRecord(file, root));
   const results: BlockResult[][] = read.map((r) => (r.kind === 'parsed' ? new Array(r.spec.blocks.length) : []));
   const misses: Array<{ record: number; block: number; file: string; entry: SpecEntry }> = [];
-  const unparsed: Array<{ record: number; block: number; file: string; entry: BlockEntry }> = [];
   read.forEach((r, record) => {
     if (r.kind === 'unreadable') return;
     r.spec.blocks.forEach((entry, block) => {
-      const place = { record, block, file: r.spec.file };
-      if (entry.kind === 'invalid') unparsed.push({ ...place, entry });
+      // A block that did not parse only needs its problems turned into a result, which is cheap.
+      if (entry.kind === 'invalid') results[record][block] = unparsedBlock(entry);
       else {
         const stored = options.recompute ? null : cache.get(r.spec.file, entry);
         if (stored) results[record][block] = stored;
-        else misses.push({ ...place, entry });
+        else misses.push({ record, block, file: r.spec.file, entry });
       }
     });
   });
-
-  // Blocks that did not parse only need their problems turned into a result, which is cheap.
-  let evaluateBlock: typeof import('./evaluate-block.ts').evaluateBlock | null = null;
-  const evaluator = async () => (evaluateBlock ??= (await import('./evaluate-block.ts')).evaluateBlock);
-  for (const { record, block, file, entry } of unparsed) results[record][block] = (await evaluator())(file, entry);
 
   let timedOut = 0;
   let overMemory = 0;
@@ -119,7 +113,7 @@ export async function checkLog(files: string[], options: CheckLogOptions = {}): 
           else {
             if (outcome.kind === 'timed-out') timedOut++;
             if (outcome.kind === 'out-of-memory') overMemory++;
-            results[record][block] = unfinishedBlock(await evaluator(), file, entry, outcome);
+            results[record][block] = unfinishedBlock(file, entry, outcome);
           }
         }),
       );
@@ -141,12 +135,7 @@ export async function checkLog(files: string[], options: CheckLogOptions = {}): 
  * machine or a larger limit may settle it); over the memory cap or crashed it is `invalid`. Neither
  * is stored, since both depend on the machine and the limits rather than on the block alone.
  */
-export function unfinishedBlock(
-  evaluate: typeof import('./evaluate-block.ts').evaluateBlock,
-  file: string,
-  entry: SpecEntry,
-  outcome: Exclude<TaskOutcome<BlockResult>, { kind: 'done' }>,
-): BlockResult {
+export function unfinishedBlock(file: string, entry: SpecEntry, outcome: Exclude<TaskOutcome<BlockResult>, { kind: 'done' }>): BlockResult {
   const { spec } = entry;
   const reason =
     outcome.kind === 'timed-out'
@@ -154,8 +143,6 @@ export function unfinishedBlock(
       : outcome.kind === 'out-of-memory'
         ? `the evaluation needed more than the memory cap of ${outcome.limitMb} MB (memoryLimitMb in groundwork.config.json) and was stopped`
         : `the evaluation stopped: ${outcome.message}`;
-  // An entry that could not be evaluated is what the evaluator turns into an empty `invalid` result.
-  const invalid = evaluate(file, { kind: 'invalid', id: spec.id, line: spec.line, caption: spec.caption, problems: [{ file, line: spec.line, block: spec.id, field: null, message: reason }], source: entry.source });
-  const result = { ...invalid, inputHash: inputHash(spec) };
+  const result = invalidBlock(spec.id, spec.line, spec.caption, [{ file, line: spec.line, block: spec.id, field: null, message: reason }], inputHash(spec), performance.now());
   return outcome.kind === 'timed-out' ? { ...result, status: 'unsettled', message: reason, problems: [] } : result;
 }

@@ -5,6 +5,7 @@ import type { ProblemBase } from '../engine/problem.ts';
 import { compileBlock } from '../expr/compile-block.ts';
 import type { BlockEntry, BlockSpec, SpecProblem } from '../spec/types.ts';
 import { inputHash } from './input-hash.ts';
+import { invalidBlock, unparsedBlock } from './invalid-block.ts';
 import { blockUnitsDisplay, inBlockUnits } from './units-back.ts';
 import type { BlockInputs, BlockResult } from './result-types.ts';
 
@@ -14,7 +15,7 @@ const ENERGY_UNIT = 'hartree';
 export function evaluateBlock(file: string, entry: BlockEntry): BlockResult {
   const started = performance.now();
   if (entry.kind === 'invalid') {
-    return invalidBlock(entry.id, entry.line, entry.caption, entry.problems, inputHash(entry.source), started);
+    return unparsedBlock(entry, started);
   }
   const { spec } = entry;
   const hash = inputHash(spec);
@@ -146,37 +147,6 @@ function toBlockResult(file: string, spec: BlockSpec, inputs: BlockInputs, engin
       variationalMs: engine.timings.variationalMs,
       referenceMs: engine.timings.referenceMs,
     },
-    quantity: null,
-    inputHash: hash,
-    timeMs: performance.now() - started,
-  };
-}
-
-function invalidBlock(id: string, line: number, caption: string | null, problems: SpecProblem[], hash: string, started: number): BlockResult {
-  return {
-    id,
-    line,
-    caption,
-    inputs: null,
-    status: 'invalid',
-    message: problems.map((p) => `${p.field ? p.field + ': ' : ''}${p.message}`).join('; '),
-    problems,
-    energy: null,
-    parameters: {},
-    variance: null,
-    varianceNote: null,
-    states: [],
-    basis: null,
-    components: null,
-    reference: null,
-    errors: { vsGrid: null, vsPublished: null },
-    bounds: { upper: null, lower: null, weinstein: null },
-    overlap: null,
-    virial: null,
-    claim: null,
-    checks: [],
-    plots: null,
-    diagnostics: null,
     quantity: null,
     inputHash: hash,
     timeMs: performance.now() - started,

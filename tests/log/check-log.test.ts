@@ -106,7 +106,7 @@ describe('checkLog: limits', () => {
   it('makes a block over the memory cap invalid, with the block and its line named', () => {
     const text = record(OSCILLATOR);
     const entry = parseRecord('m.md', text).blocks[0] as SpecEntry;
-    const result = unfinishedBlock(evaluateBlock, 'm.md', entry, { kind: 'out-of-memory', limitMb: 128 });
+    const result = unfinishedBlock('m.md', entry, { kind: 'out-of-memory', limitMb: 128 });
     expect(result).toMatchObject({ id: 'osc', status: 'invalid', line: entry.spec.line, inputHash: evaluateBlock('m.md', entry).inputHash });
     expect(result.problems).toEqual([{ file: 'm.md', line: entry.spec.line, block: 'osc', field: null, message: expect.stringMatching(/memory cap of 128 MB \(memoryLimitMb/) }]);
   });
