@@ -8,28 +8,11 @@ import { domainOf, splitPoints, type Domain } from './domain.ts';
 import { EXPECTATION_DEFAULTS } from './expectation.ts';
 import { GENERALIZED_DEFAULTS, solveGeneralized } from './generalized-eigen.ts';
 import { minimizeBounded, type MinimizeOptions, type MinimizeResult } from './minimize.ts';
-import type { EngineSpace, ParameterSpec } from './problem.ts';
+import type { BasisFunction, LinearBasis, ParameterSpec, ProblemBase } from './problem.ts';
 import { integrateVector, type IntegrationResult, type IntegrationStatus } from './quadrature.ts';
 import { probeTrial } from './trial-probe.ts';
 
-/** One basis function (radial: a radial factor R(r), weight r^2) and its first derivative. */
-export interface BasisFunction {
-  value(x: number): number;
-  d1(x: number): number;
-}
-
-/** The basis; nonlinear parameters shared by its functions are set once per solve, like TrialFamily's. */
-export interface LinearBasis {
-  functions: BasisFunction[];
-  setParameters?(values: ArrayLike<number>): void;
-}
-
-export interface LinearBasisProblem {
-  space: EngineSpace;
-  box: [number, number] | null;
-  angularMomentum: number;
-  mass: number;
-  potential: (x: number) => number;
+export interface LinearBasisProblem extends Pick<ProblemBase, 'space' | 'box' | 'angularMomentum' | 'mass' | 'potential'> {
   basis: LinearBasis;
   /** Interior quadrature split points: kinks or steps of the potential and of the basis functions. */
   breakpoints: number[];

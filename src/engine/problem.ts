@@ -48,11 +48,21 @@ export interface VariationalProblem extends ProblemBase {
   trial: TrialFamily;
 }
 
+/** One basis function (radial: a radial factor R(r), weight r^2) and its first derivative. */
+export interface BasisFunction {
+  value(x: number): number;
+  d1(x: number): number;
+}
+
+/** The basis; nonlinear parameters shared by its functions are set once per solve, like TrialFamily's. */
+export interface LinearBasis {
+  functions: BasisFunction[];
+  setParameters?(values: ArrayLike<number>): void;
+}
+
 /** Basis functions with (optionally) shared nonlinear parameters: the linear variational method. */
 export interface BasisProblem extends ProblemBase {
-  basis: {
-    functions: Array<{ value(x: number): number; d1(x: number): number }>;
-    setParameters(values: ArrayLike<number>): void;
+  basis: Required<LinearBasis> & {
     /** Functions whose sign changes mark kinks or steps of any basis function. */
     switches: Array<(x: number) => number>;
   };

@@ -23,11 +23,10 @@ export interface BlockTrees {
   basis: MathNode[] | null;
 }
 
-/** A compiled state function and its coordinate derivatives. */
+/** A compiled state function and its first coordinate derivative (all a basis function needs). */
 export interface CompiledFunction {
   value(x: number): number;
   d1(x: number): number;
-  d2(x: number): number;
 }
 
 export interface CompiledBlock {
@@ -35,7 +34,8 @@ export interface CompiledBlock {
   potential: (x: number) => number;
   potentialSwitches: Array<(x: number) => number>;
   /** Exactly one of trial and basis is set, as the block says. */
-  trial: (CompiledFunction & { setParameters(values: ArrayLike<number>): void; switches: Array<(x: number) => number> }) | null;
+  /** A trial also has its second derivative, for H psi in the variance. */
+  trial: (CompiledFunction & { d2(x: number): number; setParameters(values: ArrayLike<number>): void; switches: Array<(x: number) => number> }) | null;
   basis: { functions: CompiledFunction[]; setParameters(values: ArrayLike<number>): void; switches: Array<(x: number) => number> } | null;
 }
 
@@ -98,26 +98,24 @@ export function compileBlock(spec: BlockSpec): CompileResult {
   const onCoordinate = (tree: MathNode) => switchFunctions(tree).filter((g) => dependsOn(g, coordinate)).map((g) => at(compile(g)));
 
   const functions: CompiledFunction[] = [];
+  const d1Trees: MathNode[] = [];
   for (let i = 0; i < trees.length; i++) {
     const d1Tree = differentiate(trees[i], coordinate);
     const d1Refusal = tooLarge(d1Tree, 'first', states[i]);
     if (d1Refusal) return { ok: false, problems: [d1Refusal] };
-    const d2Tree = differentiate(d1Tree, coordinate);
-    const d2Refusal = tooLarge(d2Tree, 'second', states[i]);
-    if (d2Refusal) return { ok: false, problems: [d2Refusal] };
-    functions.push({ value: at(compile(trees[i])), d1: at(compile(d1Tree)), d2: at(compile(d2Tree)) });
+    d1Trees.push(d1Tree);
+    functions.push({ value: at(compile(trees[i])), d1: at(compile(d1Tree)) });
   }
   const switches = trees.flatMap(onCoordinate);
-  return {
-    ok: true,
-    block: {
-      trees: { coordinate, potential: potentialTree, trial: spec.trial ? trees[0] : null, basis: spec.trial ? null : trees },
-      potential: at(compile(potentialTree)),
-      potentialSwitches: onCoordinate(potentialTree),
-      trial: spec.trial ? { ...functions[0], setParameters, switches } : null,
-      basis: spec.trial ? null : { functions, setParameters, switches },
-    },
-  };
+  const block = { potential: at(compile(potentialTree)), potentialSwitches: onCoordinate(potentialTree) };
+  if (!spec.trial) {
+    return { ok: true, block: { ...block, trees: { coordinate, potential: potentialTree, trial: null, basis: trees }, trial: null, basis: { functions, setParameters, switches } } };
+  }
+  const d2Tree = differentiate(d1Trees[0], coordinate);
+  const d2Refusal = tooLarge(d2Tree, 'second', states[0]);
+  if (d2Refusal) return { ok: false, problems: [d2Refusal] };
+  const trial = { ...functions[0], d2: at(compile(d2Tree)), setParameters, switches };
+  return { ok: true, block: { ...block, trees: { coordinate, potential: potentialTree, trial: trees[0], basis: null }, trial, basis: null } };
 }
 
 function tooLarge(tree: MathNode, order: 'first' | 'second', state: { field: string; line: number }): ExpressionProblem | null {

@@ -3,11 +3,10 @@ import { jacobiEigen, solveGeneralized } from '../../src/engine/generalized-eige
 import {
   optimiseLinearBasis,
   solveLinearBasis,
-  type BasisFunction,
-  type LinearBasis,
   type LinearBasisProblem,
   type LinearBasisResult,
 } from '../../src/engine/linear-basis.ts';
+import type { BasisFunction, LinearBasis } from '../../src/engine/problem.ts';
 
 const relativeError = (value: number, exact: number) => Math.abs(value - exact) / Math.abs(exact);
 const EPS = Number.EPSILON;
