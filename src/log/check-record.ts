@@ -23,12 +23,12 @@ export function checkRecord(file: string, options: CheckRecordOptions = {}): Rec
   if (read.kind === 'unreadable') return read.result;
   const { spec } = read;
   const cache = options.cache ?? null;
-  const known = options.known ?? new Map<string, BlockResult>();
+  const known = options.known;
   return recordResult(
     spec,
     spec.blocks.map((entry) => {
       if (entry.kind !== 'spec') return evaluateBlock(spec.file, entry);
-      const ran = known.get(blockKey(spec.file, entry.spec.line, inputHash(entry.spec)));
+      const ran = known?.size ? known.get(blockKey(spec.file, entry.spec.line, inputHash(entry.spec))) : undefined;
       if (ran) return ran;
       return cache ? (cache.get(spec.file, entry) ?? cache.put(entry, evaluateBlock(spec.file, entry))) : evaluateBlock(spec.file, entry);
     }),

@@ -26,8 +26,11 @@ function installedVersion(name: string): string {
   }
 }
 
+let known: Provenance | null = null;
+
+/** Read once per process: every page of a build shares it. */
 export function provenance(): Provenance {
-  return {
+  return (known ??= {
     tool: TOOL_VERSION,
     node: process.version,
     dependencies: Object.fromEntries(DEPENDENCIES.map((name) => [name, installedVersion(name)])),
@@ -43,5 +46,5 @@ export function provenance(): Provenance {
       gridRelTol: GRID_DEFAULTS.relTol,
       gridMaxNodes: GRID_DEFAULTS.maxNodes,
     },
-  };
+  });
 }
