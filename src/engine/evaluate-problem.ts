@@ -2,7 +2,6 @@ import { eckartOverlapFloor, templeBound, weinsteinInterval } from './bounds.ts'
 import { findBreakpoints } from './breakpoints.ts';
 import { claimChecks, optimiserChecks, referenceChecks } from './checks.ts';
 import { COMPARISON_FLOOR, ENERGY_RELATIVE_ERROR_LIMIT, WALL_TOLERANCE } from './tolerances.ts';
-import { domainOf, type Domain } from './domain.ts';
 import { expectation, placedExpectation, searchExpectation, type Expectation } from './expectation.ts';
 import { ATOMIC_DISPLAY, g, type ValueDisplay } from './format.ts';
 import type { GridLevels } from './grid-levels.ts';
@@ -10,6 +9,8 @@ import { gridReference } from './grid-reference.ts';
 import { minimizeBounded, type MinimizeResult } from './minimize.ts';
 import { plotData, type PlotData } from './plot-data.ts';
 import type { VariationalProblem } from './problem.ts';
+import { spaceOf } from './spaces/space-of.ts';
+import type { CoordinateSpace } from './spaces/space.ts';
 import { findNonFiniteFactor, probeTrial } from './trial-probe.ts';
 import { gradedCheck, statusOf, type GradedCheck, type Status } from './status.ts';
 import { energyVariance, type VarianceResult } from './variance.ts';
@@ -56,7 +57,7 @@ export interface BasisDiagnostics {
  */
 export function evaluateProblem(problem: VariationalProblem): EngineResult {
   const started = performance.now();
-  const domain = domainOf(problem.space, problem.box);
+  const domain = spaceOf(problem);
   const start = problem.parameters.map((p) => p.start);
   const counts = { energyEvaluations: 0, trialEvaluations: 0 };
   const show = problem.display ?? ATOMIC_DISPLAY;
@@ -97,7 +98,7 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
   problem.trial.setParameters(best);
   const variance = energyVariance(problem, domain, optimum);
 
-  const { grid, gridError, referenceMs } = gridReference(problem, potentialBreaks, { center: optimum.probe.center, width: optimum.probe.scale });
+  const { grid, gridError, referenceMs } = gridReference(problem, domain, potentialBreaks, { center: optimum.probe.center, width: optimum.probe.scale });
   const tolerance = 10 * optimum.errorEstimate + COMPARISON_FLOOR * Math.max(1, Math.abs(energy));
   checks.push(...referenceChecks(problem, energy, tolerance, grid, gridError));
 
@@ -148,7 +149,7 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
   };
 }
 
-function evaluate(problem: VariationalProblem, domain: Domain, potentialBreaks: number[], p: ArrayLike<number>, counts: EngineResult['counts']): Expectation {
+function evaluate(problem: VariationalProblem, domain: CoordinateSpace, potentialBreaks: number[], p: ArrayLike<number>, counts: EngineResult['counts']): Expectation {
   return counted(expectation(problem, domain, potentialBreaks, p), counts);
 }
 
@@ -159,7 +160,7 @@ function counted<T extends { evaluations: number }>(result: T, counts: EngineRes
 }
 
 /** Square-integrable, finite energy integrals, and zero at every hard wall. */
-function trialChecks(problem: VariationalProblem, domain: Domain, at: Expectation, where: string): GradedCheck[] {
+function trialChecks(problem: VariationalProblem, domain: CoordinateSpace, at: Expectation, where: string): GradedCheck[] {
   // A NaN or an overflow met by the quadrature is traced to the input that produced it.
   const nonFinite = at.failure === 'non-finite' ? findNonFiniteFactor(problem.potential, problem.trial, domain) : null;
   const checks = [
@@ -215,12 +216,12 @@ function boundChecks(energy: number, lower: number | null, overlap: number | nul
   return checks;
 }
 
-/** |<psi|psi0>|^2 with the grid's lumped quadrature (radial: on chi = r R). */
-export function groundOverlap(value: (x: number) => number, domain: Domain, grid: GridLevels, norm: number): number {
+/** |<psi|psi0>|^2 with the grid's lumped quadrature (on the grid's own function, radial: chi = r R). */
+export function groundOverlap(value: (x: number) => number, domain: CoordinateSpace, grid: GridLevels, norm: number): number {
   let sum = 0;
   for (let i = 0; i < grid.nodes.length; i++) {
     const x = grid.nodes[i];
-    const trial = value(x) * (domain.radial ? x : 1);
+    const trial = value(x) * domain.gridFactor(x);
     sum += grid.weights[i] * trial * grid.ground[i];
   }
   return (sum * sum) / norm;

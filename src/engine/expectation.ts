@@ -1,7 +1,7 @@
 import { findBreakpoints } from './breakpoints.ts';
-import { splitPoints, type Domain } from './domain.ts';
 import type { VariationalProblem } from './problem.ts';
 import { integrateVector, type IntegrationResult, type Partition } from './quadrature.ts';
+import { splitPoints, type CoordinateSpace } from './spaces/space.ts';
 import { probeTrial, type TrialProbe } from './trial-probe.ts';
 
 /** <H> of the trial at one parameter point, with the pieces it is made of and their error. */
@@ -26,11 +26,11 @@ export interface Expectation {
 export const EXPECTATION_DEFAULTS = { relTol: 1e-12, maxIntervals: 2000 };
 
 /**
- * N = <psi|psi>, <T> = (hbar^2/2m) <psi'|psi'> (radial: plus l(l+1)/(2 m r^2) and weight r^2) and <V>,
- * in one vector quadrature; the |psi'|^2 form needs no second derivative and is exact for
+ * N = <psi|psi>, <T> = (hbar^2/2m) <psi'|psi'> (plus the space's angular part, with its volume element) and <V>,
+ * in one vector quadrature over the space; the |psi'|^2 form needs no second derivative and is exact for
  * trials that vanish at the walls.
  */
-export function expectation(problem: VariationalProblem, domain: Domain, potentialBreaks: number[], parameters: ArrayLike<number>): Expectation {
+export function expectation(problem: VariationalProblem, domain: CoordinateSpace, potentialBreaks: number[], parameters: ArrayLike<number>): Expectation {
   problem.trial.setParameters(parameters);
   const probe = probeTrial(problem.trial.value, domain);
   const result = placedExpectation(problem, domain, potentialBreaks, probe);
@@ -38,29 +38,12 @@ export function expectation(problem: VariationalProblem, domain: Domain, potenti
 }
 
 /** The expectation at the parameters already set, with the quadrature placed by `probe` (whose evaluations are not counted here) and started from `start`. */
-export function placedExpectation(problem: VariationalProblem, domain: Domain, potentialBreaks: number[], probe: TrialProbe, start?: Partition): Expectation {
+export function placedExpectation(problem: VariationalProblem, domain: CoordinateSpace, potentialBreaks: number[], probe: TrialProbe, start?: Partition): Expectation {
   const { trial, potential, mass } = problem;
   const trialBreaks = findBreakpoints(trial.switches, domain.lo, domain.hi, probe.center, probe.scale);
   const centre = Number.isFinite(domain.lo) ? [] : [probe.center];
   const splits = splitPoints(domain, [...potentialBreaks, ...trialBreaks.points, ...centre]);
-  const l2 = problem.angularMomentum * (problem.angularMomentum + 1);
-  const integrand = domain.radial
-    ? (r: number, out: Float64Array) => {
-        const R = trial.value(r);
-        const dR = trial.d1(r);
-        const w = r * r;
-        out[0] = w * R * R;
-        out[1] = w * dR * dR + l2 * R * R;
-        out[2] = R === 0 ? 0 : w * potential(r) * R * R;
-      }
-    : (x: number, out: Float64Array) => {
-        const psi = trial.value(x);
-        const dpsi = trial.d1(x);
-        out[0] = psi * psi;
-        out[1] = dpsi * dpsi;
-        // Far out a trial underflows to 0 where V may overflow (a Morse wall): the product is 0, not NaN.
-        out[2] = psi === 0 ? 0 : potential(x) * psi * psi;
-      };
+  const integrand = domain.energyIntegrand(trial, potential);
   const result = integrateVector(integrand, 3, { breakpoints: splits, scale: probe.scale, start, ...EXPECTATION_DEFAULTS });
   const evaluations = trialBreaks.evaluations + result.evaluations;
   const [n, tk, v] = result.values;
@@ -106,7 +89,7 @@ const CARRY_LIMIT = 4;
  * the trial has moved or changed width too much for it, and the next point is probed and integrated
  * afresh. Every value meets the same tolerance by the same error estimate as a fresh evaluation.
  */
-export function searchExpectation(problem: VariationalProblem, domain: Domain, potentialBreaks: number[], atStart: Expectation): (parameters: ArrayLike<number>) => SearchPoint {
+export function searchExpectation(problem: VariationalProblem, domain: CoordinateSpace, potentialBreaks: number[], atStart: Expectation): (parameters: ArrayLike<number>) => SearchPoint {
   let placement = atStart.probe;
   let placedPanels = panelCount(atStart.partition);
   let partition: Partition | undefined = atStart.partition;

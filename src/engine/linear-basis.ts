@@ -4,12 +4,13 @@
  * 43, 830 (1933)).
  */
 import { WALL_TOLERANCE } from './tolerances.ts';
-import { domainOf, splitPoints, type Domain } from './domain.ts';
 import { EXPECTATION_DEFAULTS } from './expectation.ts';
 import { GENERALIZED_DEFAULTS, solveGeneralized } from './generalized-eigen.ts';
 import { minimizeBounded, type MinimizeOptions, type MinimizeResult } from './minimize.ts';
 import type { BasisFunction, LinearBasis, ParameterSpec, ProblemBase } from './problem.ts';
 import { integrateVector, type IntegrationResult, type IntegrationStatus } from './quadrature.ts';
+import { spaceOf } from './spaces/space-of.ts';
+import { splitPoints, type CoordinateSpace, type Domain } from './spaces/space.ts';
 import { probeTrial } from './trial-probe.ts';
 
 export interface LinearBasisProblem extends Pick<ProblemBase, 'space' | 'box' | 'angularMomentum' | 'mass' | 'potential'> {
@@ -143,7 +144,7 @@ export function solveLinearBasis(
     if (!basis.setParameters) throw new RangeError('solveLinearBasis: parameters were given but the basis has no setParameters');
     basis.setParameters(parameters);
   }
-  const domain = domainOf(problem.space, problem.box);
+  const domain = spaceOf(problem);
   const functions = basis.functions;
   const n = functions.length;
   const envelope = (x: number) => {
@@ -167,7 +168,7 @@ export function solveLinearBasis(
   if (wall) return failed('hard-wall', wall);
 
   const context: QuadratureContext = {
-    potential, radial: domain.radial, l2: domain.radial ? problem.angularMomentum * (problem.angularMomentum + 1) : 0,
+    potential, space: domain,
     splits, scale: probe.scale, relTol: settings.relTol, maxIntervals: settings.maxIntervals,
   };
   const integrals = integrateMatrixElements(functions, context);
@@ -274,8 +275,7 @@ function wallViolation(functions: BasisFunction[], domain: Domain, peak: number,
 
 interface QuadratureContext {
   potential: (x: number) => number;
-  radial: boolean;
-  l2: number;
+  space: CoordinateSpace;
   splits: number[];
   scale: number;
   relTol: number;
@@ -283,28 +283,29 @@ interface QuadratureContext {
 }
 
 /**
- * One vector quadrature for every pair i <= j: components are S_ij, then <phi_i'|phi_j'> (radial: weight r^2 plus
- * l(l+1) phi_i phi_j), then <phi_i|V|phi_j>, each block in the order (0,0), (0,1), ..., (1,1), ...
+ * One vector quadrature for every pair i <= j: components are S_ij, then <phi_i'|phi_j'> (with the space's weight, plus
+ * its centrifugal part times phi_i phi_j), then <phi_i|V|phi_j>, each block in the order (0,0), (0,1), ..., (1,1), ...
  */
 function integrateMatrixElements(functions: BasisFunction[], context: QuadratureContext): IntegrationResult {
   const n = functions.length;
   const pairs = (n * (n + 1)) / 2;
   const values = new Float64Array(n);
   const slopes = new Float64Array(n);
-  const { potential, radial, l2 } = context;
+  const { potential, space } = context;
   const integrand = (x: number, out: Float64Array) => {
     for (let i = 0; i < n; i++) {
       values[i] = functions[i].value(x);
       slopes[i] = functions[i].d1(x);
     }
-    const w = radial ? x * x : 1;
+    const w = space.weight(x);
+    const centrifugal = space.centrifugal(x);
     const v = potential(x);
     let k = 0;
     for (let i = 0; i < n; i++) {
       for (let j = i; j < n; j++) {
         const product = values[i] * values[j];
         out[k] = w * product;
-        out[pairs + k] = w * slopes[i] * slopes[j] + l2 * product;
+        out[pairs + k] = w * slopes[i] * slopes[j] + centrifugal * product;
         // Far out the functions underflow to 0 where V may overflow (a Morse wall): the product is 0, not NaN.
         out[2 * pairs + k] = product === 0 ? 0 : w * v * product;
         k++;

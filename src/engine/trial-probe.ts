@@ -1,6 +1,6 @@
-import type { Domain } from './domain.ts';
 import { g } from './format.ts';
 import type { TrialFamily } from './problem.ts';
+import type { CoordinateSpace, Domain } from './spaces/space.ts';
 
 /** Where a trial's density lives: its peak, a length scale, and whether it is finite everywhere probed. */
 export interface TrialProbe {
@@ -18,7 +18,7 @@ const PROBE_EXPONENTS = Array.from({ length: 105 }, (_, k) => (k - 48) / 4);
 /** The density has fallen to this fraction of its peak where the length scale is read off. */
 const SCALE_DROP = 1e-3;
 
-export function probeTrial(value: (x: number) => number, domain: Domain): TrialProbe {
+export function probeTrial(value: (x: number) => number, domain: CoordinateSpace): TrialProbe {
   const points = probePoints(domain);
   const density = densityBuffer(points.length);
   let nonFiniteAt: number | null = null;
@@ -27,12 +27,12 @@ export function probeTrial(value: (x: number) => number, domain: Domain): TrialP
   for (let i = 0; i < points.length; i++) {
     const x = points[i];
     const psi = value(x);
-    density[i] = psi * psi * (domain.radial ? x * x : 1);
+    density[i] = psi * psi * domain.weight(x);
     if (Number.isFinite(psi)) peakAmplitude = Math.max(peakAmplitude, Math.abs(psi));
     else if (nonFiniteAt === null) nonFiniteAt = x;
     if (density[i] > density[best]) best = i;
   }
-  const center = domain.radial || domain.lo === 0 ? domain.lo : points[best];
+  const center = domain.lo === 0 ? domain.lo : points[best];
   // The scale is the farthest distance from the centre where the density is still appreciable.
   let scale = 0;
   const appreciable = SCALE_DROP * density[best];
@@ -62,8 +62,8 @@ export interface NonFiniteFactor {
   detail: string;
 }
 
-export function findNonFiniteFactor(potential: (x: number) => number, trial: TrialFamily, domain: Domain): NonFiniteFactor | null {
-  const coordinate = domain.radial ? 'r' : 'x';
+export function findNonFiniteFactor(potential: (x: number) => number, trial: TrialFamily, domain: CoordinateSpace): NonFiniteFactor | null {
+  const coordinate = domain.coordinate;
   const samples = probePoints(domain).map((x) => ({ x, psi: trial.value(x) }));
   let peak = { x: 0, psi: 0 };
   for (const p of samples) if (Math.abs(p.psi) > Math.abs(peak.psi) && Number.isFinite(p.psi)) peak = p;

@@ -1,7 +1,7 @@
-import type { Domain } from './domain.ts';
 import type { Expectation } from './expectation.ts';
 import type { VariationalProblem } from './problem.ts';
 import { integrateVector } from './quadrature.ts';
+import type { CoordinateSpace } from './spaces/space.ts';
 
 export interface VarianceResult {
   /** <H^2> - <H>^2, or null when it is infinite or could not be computed (see note). */
@@ -21,7 +21,7 @@ const VARIANCE_FLOOR = 1e-14;
  * <H^2> - <H>^2 when the trial is nearly exact; H psi comes from the symbolic second derivative.
  * `at` is the expectation at the parameters currently set.
  */
-export function energyVariance(problem: VariationalProblem, domain: Domain, at: Expectation): VarianceResult {
+export function energyVariance(problem: VariationalProblem, domain: CoordinateSpace, at: Expectation): VarianceResult {
   const { splits, partition, norm, energy } = at;
   const { scale, peakAmplitude } = at.probe;
   const { trial, potential, mass } = problem;
@@ -34,26 +34,7 @@ export function energyVariance(problem: VariationalProblem, domain: Domain, at: 
       return { value: null, errorEstimate: 0, note: `the trial's slope jumps at ${x.toPrecision(6)}, so H psi holds a delta function and the variance is infinite`, evaluations: 2 };
     }
   }
-  const l2 = problem.angularMomentum * (problem.angularMomentum + 1);
-  const integrand = domain.radial
-    ? (r: number, out: Float64Array) => {
-        const R = trial.value(r);
-        if (R === 0) {
-          out[0] = 0;
-          return;
-        }
-        const hR = -(trial.d2(r) + (2 * trial.d1(r)) / r) / (2 * mass) + (l2 / (2 * mass * r * r) + potential(r) - energy) * R;
-        out[0] = r * r * hR * hR;
-      }
-    : (x: number, out: Float64Array) => {
-        const psi = trial.value(x);
-        if (psi === 0) {
-          out[0] = 0;
-          return;
-        }
-        const hPsi = -trial.d2(x) / (2 * mass) + (potential(x) - energy) * psi;
-        out[0] = hPsi * hPsi;
-      };
+  const integrand = domain.varianceIntegrand(trial, potential, mass, energy);
   // A nearly exact trial has a variance at rounding level, which no relative tolerance can resolve.
   const absTol = VARIANCE_FLOOR * Math.max(energy * energy, 1e-300) * norm;
   // The energy integrals' panels, on the same split points and scale, are a good start for H psi too.

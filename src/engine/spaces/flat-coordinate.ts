@@ -1,0 +1,31 @@
+import type { VectorIntegrand } from '../quadrature.ts';
+import type { CoordinateSpace, TrialFunctions } from './space.ts';
+
+/** The parts shared by the spaces of one Cartesian coordinate (line, half-line, box): weight 1, T = |psi'|^2 / 2m. */
+export const flatCoordinate: Pick<CoordinateSpace, 'coordinate' | 'weight' | 'energyIntegrand' | 'varianceIntegrand' | 'centrifugal' | 'gridFactor'> = {
+  coordinate: 'x',
+  weight: () => 1,
+  centrifugal: () => 0,
+  gridFactor: () => 1,
+  energyIntegrand(trial: TrialFunctions, potential: (x: number) => number): VectorIntegrand {
+    return (x, out) => {
+      const psi = trial.value(x);
+      const dpsi = trial.d1(x);
+      out[0] = psi * psi;
+      out[1] = dpsi * dpsi;
+      // Far out a trial underflows to 0 where V may overflow (a Morse wall): the product is 0, not NaN.
+      out[2] = psi === 0 ? 0 : potential(x) * psi * psi;
+    };
+  },
+  varianceIntegrand(trial: TrialFunctions, potential: (x: number) => number, mass: number, energy: number): VectorIntegrand {
+    return (x, out) => {
+      const psi = trial.value(x);
+      if (psi === 0) {
+        out[0] = 0;
+        return;
+      }
+      const hPsi = -trial.d2(x) / (2 * mass) + (potential(x) - energy) * psi;
+      out[0] = hPsi * hPsi;
+    };
+  },
+};
