@@ -2,7 +2,7 @@ import type { ValueDisplay } from './format.ts';
 
 /** What the engine evaluates: plain numbers and compiled functions, no text, no units. */
 
-export type EngineSpace = 'line' | 'half-line' | 'radial';
+export type EngineSpace = 'line' | 'half-line' | 'radial' | 'plane';
 
 /** A trial family; parameters are set once per point of the search, then the functions are called many times. */
 export interface TrialFamily {

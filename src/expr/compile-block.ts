@@ -1,5 +1,5 @@
 import type { MathNode } from 'mathjs';
-import type { BlockSpec } from '../spec/types.ts';
+import { coordinateOf, type BlockSpec } from '../spec/types.ts';
 import { checkExpression, type NameScope } from './allow-list.ts';
 import { compileTree } from './compile.ts';
 import { dependsOn, differentiate } from './differentiate.ts';
@@ -55,7 +55,7 @@ export const MAX_DERIVATIVE_SIZE = 20_000;
  * and the trial's first two coordinate derivatives into closures sharing one slot array.
  */
 export function compileBlock(spec: BlockSpec): CompileResult {
-  const coordinate = spec.space === 'radial' ? 'r' : 'x';
+  const coordinate = coordinateOf(spec.space);
   const varied = spec.varied.map((p) => p.name);
   const constants: Record<string, number> = { pi: Math.PI, e: Math.E, ...spec.constants, ...spec.fixed, mass: spec.mass, hbar: HBAR };
   const problems: ExpressionProblem[] = [];

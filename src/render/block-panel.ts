@@ -50,16 +50,24 @@ export function renderBlockPanel(result: BlockResult, context: PanelContext): st
   return parts.join('\n');
 }
 
+/** The kinetic-energy operator of the block's space (radial and plane: on the radial factor, with its angular part). */
+function kineticTex(inputs: NonNullable<BlockResult['inputs']>): string {
+  const l = inputs.angularMomentum;
+  if (inputs.space === 'radial') return `-\\frac{\\hbar^2}{2m}\\frac{1}{r^2}\\frac{d}{dr}r^2\\frac{d}{dr}${l ? `+\\frac{${l * (l + 1)}\\hbar^2}{2m r^2}` : ''}`;
+  if (inputs.space === 'plane') return `-\\frac{\\hbar^2}{2m}\\frac{1}{r}\\frac{d}{dr}r\\frac{d}{dr}${l ? `+\\frac{${l * l}\\hbar^2}{2m r^2}` : ''}`;
+  return `-\\frac{\\hbar^2}{2m}\\frac{d^2}{d${inputs.coordinate}^2}`;
+}
+
 function renderInputs(result: BlockResult): string {
   const inputs = result.inputs!;
   const q = inputs.coordinate;
-  const kinetic = inputs.space === 'radial' ? `-\\frac{\\hbar^2}{2m}\\frac{1}{r^2}\\frac{d}{dr}r^2\\frac{d}{dr}${inputs.angularMomentum ? `+\\frac{${inputs.angularMomentum * (inputs.angularMomentum + 1)}\\hbar^2}{2m r^2}` : ''}` : `-\\frac{\\hbar^2}{2m}\\frac{d^2}{d${q}^2}`;
+  const kinetic = kineticTex(inputs);
   const where = inputs.box ? `${q} \\in [${inputs.box[0]}, ${inputs.box[1]}]` : inputs.space === 'line' ? `${q} \\in \\mathbb{R}` : `${q} \\ge 0`;
   const rows = [
     `<div>${tex(`H = ${kinetic} + ${inputs.potentialTex}, \\quad ${where}, \\quad m = ${inputs.mass}`, true)}</div>`,
     inputs.trialTex !== null
-      ? `<div>${tex(`${inputs.space === 'radial' ? 'R' : '\\psi'}(${q}) = ${inputs.trialTex}`, true)}</div>`
-      : `<div>Basis (linear variational method, ${result.states.length} level${result.states.length === 1 ? '' : 's'} reported):${tex(`${inputs.space === 'radial' ? 'R' : '\\psi'}(${q}) = \\sum_i c_i \\phi_i(${q})`, true)}<ol start="0" class="gw-basis">${(inputs.basisTex ?? []).map((b) => `<li>${tex(`\\phi = ${b}`)}</li>`).join('')}</ol></div>`,
+      ? `<div>${tex(`${inputs.space === 'radial' || inputs.space === 'plane' ? 'R' : '\\psi'}(${q}) = ${inputs.trialTex}`, true)}</div>`
+      : `<div>Basis (linear variational method, ${result.states.length} level${result.states.length === 1 ? '' : 's'} reported):${tex(`${inputs.space === 'radial' || inputs.space === 'plane' ? 'R' : '\\psi'}(${q}) = \\sum_i c_i \\phi_i(${q})`, true)}<ol start="0" class="gw-basis">${(inputs.basisTex ?? []).map((b) => `<li>${tex(`\\phi = ${b}`)}</li>`).join('')}</ol></div>`,
   ];
   // Units stay outside the math: they are written as mathjs spells them (nm^-1), not as TeX.
   const unitOf = (name: string) => (result.parameters[name]?.unit ? ` ${escapeHtml(result.parameters[name].unit!)}` : '');

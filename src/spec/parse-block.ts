@@ -179,7 +179,9 @@ function meaningProblems(raw: RawBlock): Array<[(string | number)[], string]> {
     if (space !== 'line') found.push([['box'], `box applies to space line only, not ${space}`]);
     else if (typeof raw.box[0] === 'number' && typeof raw.box[1] === 'number' && !(raw.box[0] < raw.box[1])) found.push([['box'], `box [${raw.box[0]}, ${raw.box[1]}] must have its left wall below its right wall`]);
   }
-  if (raw['angular-momentum'] !== undefined && space !== 'radial') found.push([['angular-momentum'], 'angular-momentum applies to space radial only']);
+  const angular = raw['angular-momentum'];
+  if (angular !== undefined && space !== 'radial' && space !== 'plane') found.push([['angular-momentum'], 'angular-momentum applies to spaces radial and plane only']);
+  else if (typeof angular === 'number' && space === 'radial' && angular < 0) found.push([['angular-momentum'], `must be 0 or more on space radial (l = ${angular}); only plane takes a negative m`]);
   if (raw.reference?.energy !== undefined && raw.reference.source === undefined) found.push([['reference', 'source'], 'a published reference energy needs its source (a citation)']);
   if (raw.reference?.tolerance !== undefined && raw.reference.energy === undefined) found.push([['reference', 'tolerance'], 'tolerance applies to a published reference energy, and none is given']);
   if (raw.claim?.tolerance !== undefined && raw.claim.energy === undefined) found.push([['claim', 'tolerance'], 'tolerance applies to a claimed energy, and none is given']);

@@ -1,6 +1,11 @@
 /** The record and spec-block contract (RECORD-FORMAT.md) as types: what the spec layer hands on. */
 
-export type Space = 'line' | 'half-line' | 'radial';
+export type Space = 'line' | 'half-line' | 'radial' | 'plane';
+
+/** The coordinate a space's expressions are written in. */
+export function coordinateOf(space: Space): 'x' | 'r' {
+  return space === 'radial' || space === 'plane' ? 'r' : 'x';
+}
 
 /** Where a problem sits, so every message can name file, line, block and field. */
 export interface SpecProblem {

@@ -1,4 +1,4 @@
-import type { BlockSpec, Claimed, SourceText, Space, SpecProblem } from '../spec/types.ts';
+import { coordinateOf, type BlockSpec, type Claimed, type SourceText, type Space, type SpecProblem } from '../spec/types.ts';
 import { dependsOn } from '../expr/differentiate.ts';
 import type { DimensionScope } from './check-dimensions.ts';
 import { ANY, ENERGY, LENGTH, MASS, describeDimension, isDimensionless, sameDimension, unify, type Dimension, type DimensionOrAny } from './dimension.ts';
@@ -89,7 +89,7 @@ export function convertQuantityBlock(file: string, block: QuantityBlockSource): 
   }
 
   const scope: { variables: Record<string, DimensionOrAny>; constants: Record<string, { dimension: DimensionOrAny; atomic: number }> } = {
-    variables: { [block.space === 'radial' ? 'r' : 'x']: LENGTH },
+    variables: { [coordinateOf(block.space)]: LENGTH },
     constants: { ...QUANTITY_SCOPE.constants, mass: { dimension: MASS, atomic: mass } },
   };
   const declared: Record<string, number> = {};

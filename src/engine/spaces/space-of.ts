@@ -2,6 +2,7 @@ import type { ProblemBase } from '../problem.ts';
 import { boxSpace } from './box.ts';
 import { halfLineSpace } from './half-line.ts';
 import { lineSpace } from './line.ts';
+import { planeSpace } from './plane.ts';
 import { radialSpace } from './radial.ts';
 import type { CoordinateSpace } from './space.ts';
 
@@ -15,5 +16,7 @@ export function spaceOf(problem: Pick<ProblemBase, 'space' | 'box' | 'angularMom
       return halfLineSpace;
     case 'radial':
       return radialSpace(problem.angularMomentum);
+    case 'plane':
+      return planeSpace(problem.angularMomentum);
   }
 }
