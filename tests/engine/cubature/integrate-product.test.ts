@@ -65,7 +65,7 @@ describe('integrateProduct', () => {
       out[0] = Math.sin(p[0]) * Math.exp(-p[1] * p[1]) * p[2] * Math.exp(-p[2]);
     }, 1, [finite(0, Math.PI), line(), halfLine()], { relTol: 1e-10 });
     expectHonest(mixed.values[0], mixed.errorEstimates[0], 2 * Math.sqrt(Math.PI), 1e-10);
-  });
+  }, 60_000); // three-dimensional nesting: a million integrand calls
 
   it('gives the same values started from a previous run at nearby parameters, with fewer evaluations', () => {
     // int e^{-a r} d^3r = 8 pi / a^3 (closed form).
