@@ -1,8 +1,12 @@
-import { ATOMIC_DISPLAY, g } from './format.ts';
+import { eckartOverlapFloor } from './bounds.ts';
+import { ATOMIC_DISPLAY, g, type ValueDisplay } from './format.ts';
 import type { GridLevels } from './grid-levels.ts';
 import type { MinimizeResult } from './minimize.ts';
 import type { ProblemBase } from './problem.ts';
 import { gradedCheck, type GradedCheck } from './status.ts';
+
+/** What the checks read of a grid solution, one coordinate or several. */
+export type ReferenceGrid = Pick<GridLevels, 'levels' | 'converged' | 'size' | 'refinements' | 'errorEstimate' | 'message'>;
 
 /** What the checks shared by the trial and the basis evaluations read from a problem. */
 export type CheckedProblem = Pick<ProblemBase, 'parameters' | 'reference' | 'claim' | 'display'>;
@@ -33,7 +37,7 @@ export function optimiserChecks(problem: CheckedProblem, optimiser: MinimizeResu
 }
 
 /** The variational energy against the grid's ground level and the published value; the grid against the published value. */
-export function referenceChecks(problem: CheckedProblem, energy: number, tolerance: number, grid: GridLevels | null, gridError: string | null): GradedCheck[] {
+export function referenceChecks(problem: CheckedProblem, energy: number, tolerance: number, grid: ReferenceGrid | null, gridError: string | null): GradedCheck[] {
   const show = problem.display ?? ATOMIC_DISPLAY;
   const checks: GradedCheck[] = [];
   const published = problem.reference.published;
@@ -116,6 +120,34 @@ export function claimChecks(problem: CheckedProblem, energy: number, best: numbe
         off <= claimed.tolerance,
         `claimed ${name} = ${show.parameter(name, claimed.value)} +/- ${show.parameter(name, claimed.tolerance, 3)}, optimum ${show.parameter(name, value)} (off by ${show.parameter(name, off, 3)})`,
         'disputed',
+      ),
+    );
+  }
+  return checks;
+}
+
+/** Temple's lower bound against the grid's ground level, and the overlap with the grid state against Eckart's floor. */
+export function boundChecks(energy: number, lower: number | null, overlap: number | null, grid: ReferenceGrid, nextLevel: number | null, tolerance: number, show: ValueDisplay): GradedCheck[] {
+  const checks: GradedCheck[] = [];
+  const e0 = grid.levels[0];
+  if (lower !== null) {
+    checks.push(
+      gradedCheck(
+        'temple-below-grid',
+        lower <= e0 + tolerance,
+        `Temple's lower bound ${show.energy(lower)} against E0(grid) ${show.energy(e0)} (with E1 = ${show.energy(nextLevel ?? NaN)})`,
+        'unsettled',
+      ),
+    );
+  }
+  const floor = eckartOverlapFloor(energy, e0, nextLevel);
+  if (overlap !== null && floor !== null) {
+    checks.push(
+      gradedCheck(
+        'eckart-overlap',
+        overlap >= floor - 1e-6,
+        `overlap with the grid ground state ${g(overlap, 8)} (Eckart's floor ${g(floor, 8)})`,
+        'unsettled',
       ),
     );
   }

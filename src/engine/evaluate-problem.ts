@@ -1,9 +1,9 @@
-import { eckartOverlapFloor, templeBound, weinsteinInterval } from './bounds.ts';
+import { templeBound, weinsteinInterval } from './bounds.ts';
 import { findBreakpoints } from './breakpoints.ts';
-import { claimChecks, optimiserChecks, referenceChecks } from './checks.ts';
+import { boundChecks, claimChecks, optimiserChecks, referenceChecks } from './checks.ts';
 import { COMPARISON_FLOOR, ENERGY_RELATIVE_ERROR_LIMIT, WALL_TOLERANCE } from './tolerances.ts';
 import { expectation, placedExpectation, searchExpectation, type Expectation } from './expectation.ts';
-import { ATOMIC_DISPLAY, g, type ValueDisplay } from './format.ts';
+import { ATOMIC_DISPLAY, g } from './format.ts';
 import type { GridLevels } from './grid-levels.ts';
 import { gridReference } from './grid-reference.ts';
 import { minimizeBounded, type MinimizeResult } from './minimize.ts';
@@ -189,32 +189,6 @@ function trialChecks(problem: VariationalProblem, domain: CoordinateSpace, at: E
   return checks;
 }
 
-function boundChecks(energy: number, lower: number | null, overlap: number | null, grid: GridLevels, nextLevel: number | null, tolerance: number, show: ValueDisplay): GradedCheck[] {
-  const checks: GradedCheck[] = [];
-  const e0 = grid.levels[0];
-  if (lower !== null) {
-    checks.push(
-      gradedCheck(
-        'temple-below-grid',
-        lower <= e0 + tolerance,
-        `Temple's lower bound ${show.energy(lower)} against E0(grid) ${show.energy(e0)} (with E1 = ${show.energy(nextLevel ?? NaN)})`,
-        'unsettled',
-      ),
-    );
-  }
-  const floor = eckartOverlapFloor(energy, e0, nextLevel);
-  if (overlap !== null && floor !== null) {
-    checks.push(
-      gradedCheck(
-        'eckart-overlap',
-        overlap >= floor - 1e-6,
-        `overlap with the grid ground state ${g(overlap, 8)} (Eckart's floor ${g(floor, 8)})`,
-        'unsettled',
-      ),
-    );
-  }
-  return checks;
-}
 
 /** |<psi|psi0>|^2 with the grid's lumped quadrature (on the grid's own function, radial: chi = r R). */
 export function groundOverlap(value: (x: number) => number, domain: CoordinateSpace, grid: GridLevels, norm: number): number {

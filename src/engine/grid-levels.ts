@@ -44,6 +44,8 @@ export interface GridLevels {
   eigenIterations: number;
   potentialEvaluations: number;
   message: string | null;
+  /** A product grid (several coordinates) summarised here: each axis's domain and elements; absent on one coordinate. */
+  axes?: Array<{ name: string; domain: [number, number]; elements: number; order: number }>;
 }
 
 /** WKB decay exponent at which a tail is cut: amplitude e^-20, so the energy error is of order e^-40. */

@@ -93,7 +93,8 @@ const DISTANCES = PROBE_EXPONENTS.map((k) => 2 ** k);
 const HALF_LINE_POINTS: readonly number[] = DISTANCES;
 const LINE_POINTS: readonly number[] = [...DISTANCES.map((d) => -d).reverse(), 0, ...DISTANCES];
 
-function probePoints(domain: Domain): readonly number[] {
+/** The coordinates a trial is probed at: a geometric mesh about 0 on open ranges, an even one on a finite range. */
+export function probePoints(domain: Domain): readonly number[] {
   if (Number.isFinite(domain.lo) && Number.isFinite(domain.hi)) {
     const n = 256;
     return Array.from({ length: n - 1 }, (_, i) => domain.lo + ((domain.hi - domain.lo) * (i + 1)) / n);

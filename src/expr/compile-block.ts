@@ -1,21 +1,17 @@
 import type { MathNode } from 'mathjs';
-import { coordinateOf, type BlockSpec } from '../spec/types.ts';
+import { coordinatesOf, type BlockSpec } from '../spec/types.ts';
 import { checkExpression, type NameScope } from './allow-list.ts';
+import { blockConstants, derivativeTooLarge, explainRefusal, stateFields, type ExpressionProblem } from './block-scope.ts';
 import { compileTree } from './compile.ts';
 import { dependsOn, differentiate } from './differentiate.ts';
 import { switchFunctions } from './switch-points.ts';
-import { treeShape } from './tree-shape.ts';
 
-export interface ExpressionProblem {
-  field: string;
-  line: number;
-  token: string | null;
-  message: string;
-}
+export type { ExpressionProblem } from './block-scope.ts';
+
 
 /** The trees a block's numbers come from, kept for typesetting. */
 export interface BlockTrees {
-  coordinate: 'x' | 'r';
+  coordinate: string;
   potential: MathNode;
   /** The trial, or null for a basis block. */
   trial: MathNode | null;
@@ -41,31 +37,22 @@ export interface CompiledBlock {
 
 export type CompileResult = { ok: true; block: CompiledBlock } | { ok: false; problems: ExpressionProblem[] };
 
-/** hbar in atomic units. */
-const HBAR = 1;
-/**
- * Terms a derivative of the trial may have when written out: some twenty times what honest trials
- * need (a 30-term polynomial times a Gaussian has about 1000), small enough that a product or tower
- * of a few dozen factors, whose derivatives grow like a power of its length, is refused at once.
- */
-export const MAX_DERIVATIVE_SIZE = 20_000;
 
 /**
  * Checks a block's expressions against its declarations and compiles the potential, the trial
  * and the trial's first two coordinate derivatives into closures sharing one slot array.
  */
 export function compileBlock(spec: BlockSpec): CompileResult {
-  const coordinate = coordinateOf(spec.space);
+  const coordinate = coordinatesOf(spec.space)[0];
   const varied = spec.varied.map((p) => p.name);
-  const constants: Record<string, number> = { pi: Math.PI, e: Math.E, ...spec.constants, ...spec.fixed, mass: spec.mass, hbar: HBAR };
+  const constants = blockConstants(spec);
   const problems: ExpressionProblem[] = [];
 
-  // A trial block has one state function named `trial`; a basis block has `basis[0]`, `basis[1]`, ...
-  const states = spec.trial ? [{ field: 'trial', ...spec.trial }] : (spec.basis ?? []).map((b, i) => ({ field: `basis[${i}]`, ...b }));
+  const states = stateFields(spec);
   const check = (field: string, text: string, line: number, variables: string[]): MathNode | null => {
     const result = checkExpression(text, { variables, constants } satisfies NameScope);
     if (result.ok) return result.tree;
-    problems.push({ field, line, token: result.token, message: explain(result.token, result.message, spec, coordinate, field) });
+    problems.push({ field, line, token: result.token, message: explainRefusal(result.token, result.message, spec, field) });
     return null;
   };
   const potentialTree = check('potential', spec.potential.text, spec.potential.line, [coordinate]);
@@ -101,7 +88,7 @@ export function compileBlock(spec: BlockSpec): CompileResult {
   const d1Trees: MathNode[] = [];
   for (let i = 0; i < trees.length; i++) {
     const d1Tree = differentiate(trees[i], coordinate);
-    const d1Refusal = tooLarge(d1Tree, 'first', states[i]);
+    const d1Refusal = derivativeTooLarge(d1Tree, 'first', states[i]);
     if (d1Refusal) return { ok: false, problems: [d1Refusal] };
     d1Trees.push(d1Tree);
     functions.push({ value: at(compile(trees[i])), d1: at(compile(d1Tree)) });
@@ -112,28 +99,10 @@ export function compileBlock(spec: BlockSpec): CompileResult {
     return { ok: true, block: { ...block, trees: { coordinate, potential: potentialTree, trial: null, basis: trees }, trial: null, basis: { functions, setParameters, switches } } };
   }
   const d2Tree = differentiate(d1Trees[0], coordinate);
-  const d2Refusal = tooLarge(d2Tree, 'second', states[0]);
+  const d2Refusal = derivativeTooLarge(d2Tree, 'second', states[0]);
   if (d2Refusal) return { ok: false, problems: [d2Refusal] };
   const trial = { ...functions[0], d2: at(compile(d2Tree)), setParameters, switches };
   return { ok: true, block: { ...block, trees: { coordinate, potential: potentialTree, trial: trees[0], basis: null }, trial, basis: null } };
 }
 
-function tooLarge(tree: MathNode, order: 'first' | 'second', state: { field: string; line: number }): ExpressionProblem | null {
-  const { size } = treeShape(tree);
-  if (size <= MAX_DERIVATIVE_SIZE) return null;
-  return {
-    field: state.field,
-    line: state.line,
-    token: null,
-    message: `the ${state.field === 'trial' ? "trial's" : `${state.field} function's`} ${order} derivative has ${size} terms when written out (the limit is ${MAX_DERIVATIVE_SIZE}); write the trial with fewer nested products, powers or functions`,
-  };
-}
 
-function explain(token: string, message: string, spec: BlockSpec, coordinate: string, field: string): string {
-  if (field === 'potential' && spec.varied.some((p) => p.name === token)) {
-    return `the potential may not depend on the varied parameter ${token}; hold it fixed (a plain value under parameters) or move it to constants`;
-  }
-  const other = coordinate === 'r' ? 'x' : 'r';
-  if (token === other) return `unknown name ${other}: the coordinate of space ${spec.space} is ${coordinate}`;
-  return message;
-}

@@ -2,7 +2,7 @@ import { isScalar, LineCounter, parseDocument, type Document } from 'yaml';
 import type { ZodIssue } from 'zod';
 import { blockSchema, RESERVED_NAMES, type QuantityText, type RawBlock } from './block-schema.ts';
 import type { FencedBlock } from './find-blocks.ts';
-import type { BlockEntry, BlockSpec, Claimed, SpecProblem } from './types.ts';
+import { coordinatesOf, spaceLabel, type BlockEntry, type BlockSpec, type Claimed, type SpecProblem } from './types.ts';
 import { writtenPrecision } from './written-precision.ts';
 import { locateYamlError } from './yaml-errors.ts';
 import { convertQuantityBlock, type QuantityBlockSource, type QuantitySource } from '../units/quantity-block.ts';
@@ -89,7 +89,7 @@ type Path = (string | number)[];
 /** Every field that holds a number, or in quantity mode a quantity, with its path. */
 function quantityFields(raw: RawBlock): Array<[Path, number | string]> {
   const fields: Array<[Path, number | string | undefined]> = [
-    [['mass'], raw.mass],
+    ...(typeof raw.mass === 'object' ? Object.entries(raw.mass).map(([k, v]): [Path, number | string] => [['mass', k], v]) : [[['mass'], raw.mass] as [Path, number | string | undefined]]),
     [['reference', 'energy'], raw.reference?.energy],
     [['reference', 'tolerance'], raw.reference?.tolerance],
     [['claim', 'energy'], raw.claim?.energy],
@@ -136,7 +136,8 @@ function quantitySource(raw: RawBlock & { units: Record<string, string> }, line:
     space: raw.space ?? 'line',
     box: raw.box ? [at(['box', 0], raw.box[0]), at(['box', 1], raw.box[1])] : null,
     angularMomentum: raw['angular-momentum'] ?? 0,
-    mass: optional(['mass'], raw.mass),
+    // A mass per coordinate is refused in quantity mode (meaningProblems), so the mass here is one quantity.
+    mass: typeof raw.mass === 'object' ? null : optional(['mass'], raw.mass),
     constants: Object.fromEntries(Object.entries(raw.constants ?? {}).map(([k, v]) => [k, at(['constants', k], v)])),
     ...expressions(raw, lineOf),
     varied,
@@ -176,11 +177,12 @@ function meaningProblems(raw: RawBlock): Array<[(string | number)[], string]> {
   if (raw.states !== undefined && raw.basis === undefined) found.push([['states'], 'states goes with basis: a single trial gives one level']);
   const space = raw.space ?? 'line';
   if (raw.box !== undefined) {
-    if (space !== 'line') found.push([['box'], `box applies to space line only, not ${space}`]);
+    if (space !== 'line') found.push([['box'], `box applies to space line only, not ${spaceLabel(space)}${typeof space === 'object' ? ' (give each coordinate its range [a, b] in the map)' : ''}`]);
     else if (typeof raw.box[0] === 'number' && typeof raw.box[1] === 'number' && !(raw.box[0] < raw.box[1])) found.push([['box'], `box [${raw.box[0]}, ${raw.box[1]}] must have its left wall below its right wall`]);
   }
+  found.push(...spaceProblems(raw, quantityMode));
   const angular = raw['angular-momentum'];
-  if (angular !== undefined && space !== 'radial' && space !== 'plane') found.push([['angular-momentum'], 'angular-momentum applies to spaces radial and plane only']);
+  if (angular !== undefined && space !== 'radial' && space !== 'plane' && space !== 'axial') found.push([['angular-momentum'], 'angular-momentum applies to spaces radial, plane and axial only']);
   else if (typeof angular === 'number' && space === 'radial' && angular < 0) found.push([['angular-momentum'], `must be 0 or more on space radial (l = ${angular}); only plane takes a negative m`]);
   if (raw.reference?.energy !== undefined && raw.reference.source === undefined) found.push([['reference', 'source'], 'a published reference energy needs its source (a citation)']);
   if (raw.reference?.tolerance !== undefined && raw.reference.energy === undefined) found.push([['reference', 'tolerance'], 'tolerance applies to a published reference energy, and none is given']);
@@ -203,6 +205,39 @@ function meaningProblems(raw: RawBlock): Array<[(string | number)[], string]> {
   }
   for (const name of Object.keys(raw.claim?.parameters ?? {})) {
     if (!parameterNames.includes(name)) found.push([['claim', 'parameters', name], `claim names parameter ${name}, which the block does not declare`]);
+  }
+  return found;
+}
+
+/** Rules of the spaces with more than one coordinate: how many coordinates, their ranges and names, masses per coordinate. */
+function spaceProblems(raw: RawBlock, quantityMode: boolean): Array<[Path, string]> {
+  const found: Array<[Path, string]> = [];
+  const space = raw.space ?? 'line';
+  if (typeof space === 'object') {
+    const names = Object.keys(space);
+    if (names.length < 2 || names.length > 3) found.push([['space'], `a product space has 2 or 3 coordinates, not ${names.length}`]);
+    for (const name of names) {
+      const range = space[name];
+      if (Array.isArray(range) && !(range[0] < range[1])) found.push([['space', name], `[${range[0]}, ${range[1]}] must have its left wall below its right wall`]);
+      if (['pi', 'e', 'mass', 'hbar'].includes(name)) found.push([['space', name], `${name} is a built-in name and cannot be a coordinate`]);
+      if (quantityMode && Array.isArray(range)) found.push([['space', name], 'a coordinate range [a, b] is not yet read in quantity mode: write the block in atomic units']);
+    }
+    if (raw.basis !== undefined) found.push([['basis'], 'a basis (linear method) is not yet available on a product space: write one trial']);
+  }
+  if (space === 'axial' && raw.basis !== undefined) found.push([['basis'], 'a basis (linear method) is not yet available on space axial: write one trial']);
+  const coordinates = coordinatesOf(space);
+  for (const [group, names] of [['constants', Object.keys(raw.constants ?? {})], ['parameters', Object.keys(raw.parameters ?? {})]] as const) {
+    for (const name of names) {
+      if (coordinates.includes(name) && !(RESERVED_NAMES as readonly string[]).includes(name)) found.push([[group, name], `${name} is a coordinate of this space; choose another name`]);
+    }
+  }
+  if (typeof raw.mass === 'object') {
+    if (typeof space !== 'object') found.push([['mass'], `a mass per coordinate applies to a product space (a map of coordinates), not ${space}`]);
+    else {
+      for (const name of Object.keys(raw.mass)) if (!(name in space)) found.push([['mass', name], `${name} is not a coordinate of this space (${Object.keys(space).join(', ')})`]);
+      for (const name of Object.keys(space)) if (!(name in raw.mass)) found.push([['mass'], `the mass map gives no mass for coordinate ${name}`]);
+    }
+    if (quantityMode) found.push([['mass'], 'a mass per coordinate is not yet read in quantity mode: write the block in atomic units']);
   }
   return found;
 }
@@ -230,7 +265,8 @@ function toSpec(raw: AtomicBlock, line: number, doc: Document, lineOf: (path: (s
     space: raw.space ?? 'line',
     box: raw.box ?? null,
     angularMomentum: raw['angular-momentum'] ?? 0,
-    mass: raw.mass ?? 1,
+    mass: typeof raw.mass === 'number' ? raw.mass : 1,
+    masses: typeof raw.mass === 'object' ? raw.mass : null,
     constants: raw.constants ?? {},
     ...expressions(raw, lineOf),
     varied,

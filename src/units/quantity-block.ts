@@ -1,4 +1,4 @@
-import { coordinateOf, type BlockSpec, type Claimed, type SourceText, type Space, type SpecProblem } from '../spec/types.ts';
+import { coordinatesOf, type BlockSpec, type Claimed, type SourceText, type Space, type SpecProblem } from '../spec/types.ts';
 import { dependsOn } from '../expr/differentiate.ts';
 import type { DimensionScope } from './check-dimensions.ts';
 import { ANY, ENERGY, LENGTH, MASS, describeDimension, isDimensionless, sameDimension, unify, type Dimension, type DimensionOrAny } from './dimension.ts';
@@ -89,7 +89,7 @@ export function convertQuantityBlock(file: string, block: QuantityBlockSource): 
   }
 
   const scope: { variables: Record<string, DimensionOrAny>; constants: Record<string, { dimension: DimensionOrAny; atomic: number }> } = {
-    variables: { [coordinateOf(block.space)]: LENGTH },
+    variables: Object.fromEntries(coordinatesOf(block.space).map((c) => [c, LENGTH])),
     constants: { ...QUANTITY_SCOPE.constants, mass: { dimension: MASS, atomic: mass } },
   };
   const declared: Record<string, number> = {};
@@ -181,6 +181,7 @@ export function convertQuantityBlock(file: string, block: QuantityBlockSource): 
       box,
       angularMomentum: block.angularMomentum,
       mass,
+      masses: null,
       constants: { ...bound, ...declared },
       potential: block.potential,
       trial: block.trial,

@@ -102,7 +102,7 @@ const EXPECTED: Record<string, Expected> = {
   'reserved-parameter-name': { blocks: [invalid('reserved-s5', 'x is a reserved name', on('parameters.x', '  x: 2'))] },
   'box-on-radial': { blocks: [invalid('radbox-s6', 'box applies to space line only, not radial', on('box', 'box:'))] },
   'box-reversed': { blocks: [invalid('flipbox-s7', 'box [1, 0] must have its left wall below its right wall', on('box', 'box:'))] },
-  'angular-momentum-on-line': { blocks: [invalid('lline-s8', 'angular-momentum applies to spaces radial and plane only', on('angular-momentum', 'angular-momentum:'))] },
+  'angular-momentum-on-line': { blocks: [invalid('lline-s8', 'angular-momentum applies to spaces radial, plane and axial only', on('angular-momentum', 'angular-momentum:'))] },
   'angular-momentum-fractional': { blocks: [invalid('lhalf-s9', 'must be an integer', on('angular-momentum', 'angular-momentum:'))] },
   'two-hundred-parameters': { blocks: [invalid('many-s10', '200 parameters are varied; at most 32', on('parameters', 'parameters:'))] },
   // References and claims

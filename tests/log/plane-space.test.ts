@@ -67,6 +67,6 @@ parameters:
     expect(radial.status).toBe('invalid');
     expect(radial.problems[0].field).toBe('angular-momentum');
     const line = run(`id: bad-line\nangular-momentum: 1\npotential: x^2\ntrial: exp(-x^2)`);
-    expect(line.problems[0].message).toMatch(/radial and plane only/);
+    expect(line.problems[0].message).toMatch(/radial, plane and axial only/);
   });
 });

@@ -1,0 +1,32 @@
+import { cartesianEnergyIntegrand, cartesianVarianceIntegrand } from '../cubature/energy-integrands.ts';
+import type { PointFunction } from '../problem.ts';
+import { boxSpace } from './box.ts';
+import type { FieldSpace } from './field-space.ts';
+import { halfLineSpace } from './half-line.ts';
+import { lineSpace } from './line.ts';
+import type { CoordinateSpace } from './space.ts';
+
+/** One Cartesian coordinate of a product: the whole line, x >= 0 with a wall at 0, or [a, b] with walls at both ends. */
+export type AxisRange = 'line' | 'half-line' | [number, number];
+
+/** A product of 2 or 3 named Cartesian coordinates, each with its range and its own mass; volume element dx dy [dz]. */
+export function cartesianSpace(coordinates: Array<{ name: string; range: AxisRange; mass: number }>): FieldSpace {
+  const masses = coordinates.map((c) => c.mass);
+  const closures = (trial: Parameters<FieldSpace['energyIntegrand']>[0], potential: PointFunction) => ({ value: trial.value, gradient: trial.gradient, potential, masses });
+  return {
+    name: 'product',
+    coordinates: coordinates.map((c) => c.name),
+    axes: coordinates.map((c) => axisOf(c.range)),
+    energyIntegrand: (trial, potential) => cartesianEnergyIntegrand(closures(trial, potential)),
+    // The compiled Laplacian is already sum_k d2_k psi / m_k.
+    varianceIntegrand: (trial, potential, energy) => cartesianVarianceIntegrand({ ...closures(trial, potential), laplacian: trial.laplacian }, energy),
+    order: coordinates.map((_, k) => k),
+    singularities: () => [],
+  };
+}
+
+function axisOf(range: AxisRange): CoordinateSpace {
+  if (range === 'line') return lineSpace;
+  if (range === 'half-line') return halfLineSpace;
+  return boxSpace(range[0], range[1]);
+}
