@@ -1,4 +1,5 @@
 import type { Domain } from './domain.ts';
+import { g } from './format.ts';
 import type { Expectation } from './expectation.ts';
 import type { MassProfile, VariationalProblem } from './problem.ts';
 import { integrateVector } from './quadrature.ts';
@@ -41,7 +42,7 @@ export function energyVariance(problem: VariationalProblem, domain: Domain, at: 
     const [mLeft, mRight] = [profile.value(x - h), profile.value(x + h)];
     const jump = Math.abs(trial.d1(x + h) / mRight - trial.d1(x - h) / mLeft);
     if (jump > (CUSP_TOLERANCE * (peakAmplitude / scale)) / Math.max(mLeft, mRight)) {
-      const where = mLeft === mRight ? "the trial's slope jumps" : `the mass steps from ${mLeft.toPrecision(6)} to ${mRight.toPrecision(6)} and the trial's psi'/m is not continuous (BenDaniel–Duke)`;
+      const where = mLeft === mRight ? "the trial's slope jumps" : `the mass steps from ${g(mLeft, 6)} to ${g(mRight, 6)} and the trial's psi'/m is not continuous (BenDaniel–Duke)`;
       return { value: null, errorEstimate: 0, note: `at ${x.toPrecision(6)} ${where}, so H psi holds a delta function and the variance is infinite`, evaluations: 2 };
     }
   }

@@ -3,39 +3,14 @@ import { evaluateProblem } from '../../src/engine/evaluate-problem.ts';
 import { gridLevels } from '../../src/engine/grid-levels.ts';
 import type { MassProfile, ProblemBase, TrialFamily } from '../../src/engine/problem.ts';
 
-/**
- * A finite square well whose mass differs inside (m_in, |x| < a) and outside (m_out): V = 0 inside, V0 outside.
- * With k = sqrt(2 m_in E) and kappa = sqrt(2 m_out (V0 - E)), continuity of psi and of psi'/m at x = a
- * (BenDaniel & Duke, Phys. Rev. 152, 683 (1966); Bastard, Wave Mechanics Applied to Semiconductor
- * Heterostructures (1988), ch. III) gives for even states (k/m_in) tan(k a) = kappa/m_out and for odd states
- * -(k/m_in) cot(k a) = kappa/m_out. Derivation: psi = cos(kx) inside, C e^{-kappa x} outside; psi continuous gives
- * C e^{-kappa a} = cos(ka), psi'/m continuous gives -k sin(ka)/m_in = -kappa C e^{-kappa a}/m_out; divide.
- * Written without poles: (k/m_in) sin(ka) - (kappa/m_out) cos(ka) = 0 (even), (k/m_in) cos(ka) + (kappa/m_out) sin(ka) = 0 (odd).
- */
+import { bisectRoot, steppedWellLevel } from './bdd-square-well.ts';
+
+// The stepped-mass square well of bdd-square-well.ts (BenDaniel & Duke matching).
 const a = 1.2;
 const depth = 4;
 const mIn = 0.6;
 const mOut = 1.7;
-
-function bisectRoot(f: (z: number) => number, lo: number, hi: number): number {
-  let [neg, pos] = f(lo) < 0 ? [lo, hi] : [hi, lo];
-  for (let i = 0; i < 200; i++) {
-    const mid = 0.5 * (neg + pos);
-    if (f(mid) < 0) neg = mid;
-    else pos = mid;
-  }
-  return 0.5 * (neg + pos);
-}
-
-/** The j-th level (j = 0 even, 1 odd, ...): z = k a lies in [j pi/2, (j+1) pi/2]. */
-function wellLevel(j: number): number {
-  const energy = (z: number) => (z * z) / (2 * mIn * a * a);
-  const kappa = (z: number) => Math.sqrt(2 * mOut * Math.max(depth - energy(z), 0));
-  const even = j % 2 === 0;
-  const f = (z: number) => (even ? ((z / a) / mIn) * Math.sin(z) - (kappa(z) / mOut) * Math.cos(z) : ((z / a) / mIn) * Math.cos(z) + (kappa(z) / mOut) * Math.sin(z));
-  const zMax = Math.min(((j + 1) * Math.PI) / 2, a * Math.sqrt(2 * mIn * depth));
-  return energy(bisectRoot(f, (j * Math.PI) / 2 + 1e-12, zMax - 1e-12));
-}
+const wellLevel = (j: number) => steppedWellLevel({ halfWidth: a, depth, massIn: mIn, massOut: mOut }, j);
 
 const inside = (x: number) => Math.abs(x) < a;
 const profile: MassProfile = { value: (x) => (inside(x) ? mIn : mOut), d1: () => 0, switches: [(x) => x - a, (x) => x + a] };
@@ -135,5 +110,34 @@ describe('position-dependent mass: variational part', () => {
     expect(result.status).toBe('invalid');
     expect(result.checks[0]).toMatchObject({ name: 'mass-positive', pass: false, field: 'mass' });
     expect(result.checks[0].detail).toMatch(/mass is -1/);
+  });
+});
+
+/**
+ * A spherical well (V = 0 for r < b, V0 outside) with mass m_in inside and m_out outside, l = 0: R = sin(kr)/r
+ * inside and C e^{-kappa r}/r outside. With H = -(1/2) div(grad/m) + V the radial flux R'/m is continuous at r = b
+ * (BenDaniel & Duke, as on the line), so (k cot(kb) - 1/b)/m_in = -(kappa + 1/b)/m_out; times sin(kb) this has no
+ * pole: (k cos z - sin(z)/b)/m_in + (kappa + 1/b) sin(z)/m_out = 0 with z = kb, whose lowest root lies in (0, pi).
+ * On the grid's u = rR this step also puts (1/2) [1/m] u(b)^2 / b into <T>, which the test checks is there.
+ */
+describe('position-dependent mass: radial grid reference', () => {
+  const b = 1.5;
+  const v0 = 6;
+  const inner = 0.5;
+  const outer = 1.3;
+  const sphere: MassProfile = { value: (r) => (r < b ? inner : outer), d1: () => 0, switches: [(r) => r - b] };
+  const energy = (z: number) => (z * z) / (2 * inner * b * b);
+  const f = (z: number) => {
+    const k = z / b;
+    const kappa = Math.sqrt(2 * outer * Math.max(v0 - energy(z), 0));
+    return (k * Math.cos(z) - Math.sin(z) / b) / inner + ((kappa + 1 / b) * Math.sin(z)) / outer;
+  };
+
+  it('matches the matched spherical-well ground level to 1e-8 relative', () => {
+    const exact = energy(bisectRoot(f, 1e-6, Math.PI - 1e-9));
+    expect(exact).toBeLessThan(v0);
+    const grid = gridLevels({ space: 'radial', mass: Number.NaN, massProfile: sphere, potential: (r) => (r < b ? 0 : v0), breakpoints: [b], angularMomentum: 0, levels: 1 });
+    expect(grid.converged).toBe(true);
+    expect(Math.abs(grid.levels[0] - exact) / exact).toBeLessThan(1e-8);
   });
 });

@@ -1,0 +1,105 @@
+import { describe, expect, it } from 'vitest';
+import { evaluateBlock } from '../../src/log/evaluate-block.ts';
+import type { BlockResult } from '../../src/log/result-types.ts';
+import { parseRecord } from '../../src/spec/parse-record.ts';
+import { steppedWellLevel } from '../engine/bdd-square-well.ts';
+
+// Blocks with a position-dependent mass (RECORD-FORMAT.md "Position-dependent mass") through parseRecord and
+// evaluateBlock, against the BenDaniel–Duke square-well levels of tests/engine/bdd-square-well.ts.
+
+const FILE = 'content/records/heterostructure.md';
+
+function run(block: string): BlockResult {
+  const text = ['---', 'title: Junctions', 'author: test', 'date: 2026-01-01', 'tags: []', '---', '', '```variational', block, '```', ''].join('\n');
+  return evaluateBlock(FILE, parseRecord(FILE, text).blocks[0]);
+}
+
+const relative = (value: number, exact: number) => Math.abs(value - exact) / Math.abs(exact);
+
+describe('position-dependent mass in atomic units', () => {
+  const well = { halfWidth: 1.2, depth: 4, massIn: 0.6, massOut: 1.7 };
+  const [e0, e1] = [steppedWellLevel(well, 0), steppedWellLevel(well, 1)];
+  const header = `mass: "abs(x) < 1.2 ? 0.6 : 1.7"\npotential: "abs(x) < 1.2 ? 0 : 4"`;
+
+  it('a Gaussian trial is an upper bound above the exact level and is confirmed; the grid has the lowest two levels to 1e-8', () => {
+    const result = run(`id: step-gauss\n${header}\ntrial: exp(-b*x^2)\nparameters:\n  b: { start: 0.5, min: 0.01, max: 10 }`);
+    expect(result.status, result.message ?? '').toBe('confirmed');
+    expect(result.energy!.value).toBeGreaterThan(e0);
+    expect(relative(result.reference!.energy!, e0)).toBeLessThan(1e-8);
+    expect(relative(result.reference!.excited!, e1)).toBeLessThan(1e-8);
+    // The Gaussian's slope is continuous where the mass steps, so psi'/m is not: H psi holds a delta function.
+    expect(result.variance).toBeNull();
+    expect(result.varianceNote).toMatch(/the mass steps from 1\.7 to 0\.6 and the trial's psi'\/m is not continuous/);
+    expect(result.virial).toBeNull();
+    expect(result.inputs!.mass).toBeNull();
+    expect(result.inputs!.massTex).toContain('1.7');
+  });
+
+  it('a trial that meets the BenDaniel–Duke conditions reaches the exact level with a vanishing variance', () => {
+    // psi = cos(q x) inside, matched in value and in psi'/m at |x| = 1.2 by the decay p = (1.7/0.6) q tan(1.2 q).
+    const trial = 'abs(x) < 1.2 ? cos(q*x) : cos(1.2*q) * exp(-(1.7/0.6)*q*tan(1.2*q)*(abs(x) - 1.2))';
+    const result = run(`id: step-matched\n${header}\ntrial: "${trial}"\nparameters:\n  q: { start: 0.6, min: 0.1, max: 1.3 }`);
+    expect(result.status, result.message ?? '').toBe('confirmed');
+    expect(relative(result.energy!.value, e0)).toBeLessThan(1e-9);
+    expect(result.variance).not.toBeNull();
+    expect(result.variance!).toBeLessThan(1e-6 * e0 * e0);
+  });
+
+  it('a basis block (linear method) uses 1/m(x) too: its lowest level lies above the exact one, below the single Gaussian', () => {
+    const gaussian = run(`id: step-gauss\n${header}\ntrial: exp(-b*x^2)\nparameters:\n  b: { start: 0.5, min: 0.01, max: 10 }`);
+    const basis = ['exp(-b*x^2)', 'x^2*exp(-b*x^2)', 'x^4*exp(-b*x^2)', 'x^6*exp(-b*x^2)'];
+    const result = run(`id: step-basis\n${header}\nbasis:\n${basis.map((f) => `  - "${f}"`).join('\n')}\nparameters:\n  b: { start: 0.5, min: 0.01, max: 10 }`);
+    expect(result.status, result.message ?? '').toBe('confirmed');
+    expect(result.energy!.value).toBeGreaterThan(e0);
+    // The span holds the Gaussian at every b, so the lowest level is at or below the single trial's optimum.
+    expect(result.energy!.value).toBeLessThanOrEqual(gaussian.energy!.value * (1 + 1e-9));
+    expect(relative(result.energy!.value, e0)).toBeLessThan(0.1);
+  });
+
+  it('a mass written as an expression without the coordinate is a constant mass', () => {
+    const written = run('id: half\nmass: "1/2"\npotential: x^2/2\ntrial: exp(-a*x^2)\nparameters:\n  a: { start: 0.3, min: 0.01, max: 10 }');
+    const plain = run('id: half\nmass: 0.5\npotential: x^2/2\ntrial: exp(-a*x^2)\nparameters:\n  a: { start: 0.3, min: 0.01, max: 10 }');
+    // Harmonic oscillator: E0 = omega/2 with omega = sqrt(k/m) = sqrt(2) (any quantum mechanics text).
+    expect(relative(written.energy!.value, Math.SQRT2 / 2)).toBeLessThan(1e-9);
+    expect(written.energy!.value).toBe(plain.energy!.value);
+    expect(written.inputs!.mass).toBe(0.5);
+  });
+});
+
+describe('position-dependent mass in quantity mode', () => {
+  // NIST CODATA 2018: hbar = 1.054571817e-34 J s, m_e = 9.1093837015e-31 kg, e = 1.602176634e-19 C (exact).
+  const hbarSquaredOverMass = (1.054571817e-34 ** 2 / 9.1093837015e-31 / 1.602176634e-22) * 1e18; // meV nm^2
+  // A GaAs well between AlGaAs barriers: effective masses 0.067 and 0.092 m_e and a 224 meV offset, from memory.
+  const well = { halfWidth: 5, depth: 224, massIn: 0.067 / hbarSquaredOverMass, massOut: 0.092 / hbarSquaredOverMass };
+  const block = (mass: string) => `id: gaas-well
+units: { length: nm, energy: meV }
+mass: "${mass}"
+potential: "abs(x) < 5 nm ? 0 meV : 224 meV"
+trial: exp(-b*x^2)
+parameters:
+  b: { start: 0.02 nm^-2, min: 0.0001 nm^-2, max: 1 nm^-2 }`;
+
+  it('a 10 nm GaAs/AlGaAs well: grid levels in meV against the BenDaniel–Duke condition, the Gaussian above them', () => {
+    const result = run(block('abs(x) < 5 nm ? 0.067 electronMass : 0.092 electronMass'));
+    expect(result.status, result.message ?? '').toBe('confirmed');
+    expect(result.energy!.unit).toBe('meV');
+    const [e0, e1] = [steppedWellLevel(well, 0), steppedWellLevel(well, 1)];
+    expect(relative(result.reference!.energy!, e0)).toBeLessThan(1e-8);
+    expect(relative(result.reference!.excited!, e1)).toBeLessThan(1e-8);
+    expect(result.energy!.value).toBeGreaterThan(e0);
+  });
+
+  it('bare numbers count electron masses, as for a constant mass', () => {
+    const withUnits = run(block('abs(x) < 5 nm ? 0.067 electronMass : 0.092 electronMass'));
+    const bare = run(block('abs(x) < 5 nm ? 0.067 : 0.092'));
+    expect(bare.status, bare.message ?? '').toBe('confirmed');
+    expect(relative(bare.reference!.energy!, withUnits.reference!.energy!)).toBeLessThan(1e-12);
+  });
+
+  it('refuses a mass expression that is not a mass, naming the field', () => {
+    const result = run(block('abs(x) < 5 nm ? 0.067 meV : 0.092 meV'));
+    expect(result.status).toBe('invalid');
+    expect(result.problems[0]).toMatchObject({ field: 'mass', line: 11 });
+    expect(result.problems[0].message).toMatch(/the mass must be a mass/);
+  });
+});
