@@ -134,26 +134,18 @@ type MassReading = { ok: true; value: number; tree: MathNode | null } | { ok: fa
 
 /**
  * The mass as a number, or as an expression of the coordinate (in electron masses; a position-dependent mass in the
- * BenDaniel–Duke kinetic form). An expression that does not depend on the coordinate is evaluated once and counts
- * as a constant mass. It may use the constants and fixed parameters, not the varied ones nor itself.
+ * BenDaniel–Duke kinetic form; the spec layer lets text through only when it names the coordinate). It may use the
+ * constants and fixed parameters, not the varied ones nor itself.
  */
 function readMass(spec: BlockSpec, coordinate: 'x' | 'r', constants: Record<string, number>): MassReading {
   if (typeof spec.mass === 'number') return { ok: true, value: spec.mass, tree: null };
-  const { text, line } = spec.mass;
-  const checked = checkExpression(text, { variables: [coordinate], constants });
-  if (!checked.ok) {
-    const message = explain(checked.token, checked.message, spec, coordinate, 'mass');
-    // Often a unit written in an atomic-unit block.
-    const unknown = spec.quantity === null && message.startsWith('unknown name');
-    const full = unknown
-      ? `must be a number or an expression of the coordinate ${coordinate}; ${message}; a mass with a unit, such as 0.067 electronMass, needs quantity mode (units: { length: nm, energy: meV })`
-      : message;
-    return { ok: false, problem: { field: 'mass', line, token: checked.token, message: full } };
-  }
-  if (dependsOn(checked.tree, coordinate)) return { ok: true, value: Number.NaN, tree: checked.tree };
-  const value = compileTree(checked.tree, { [coordinate]: 0 }, constants)(new Float64Array(1));
-  if (!(value > 0) || !Number.isFinite(value)) return { ok: false, problem: { field: 'mass', line, token: null, message: `the mass must be positive, but ${text} is ${value}` } };
-  return { ok: true, value, tree: null };
+  const { line } = spec.mass;
+  const checked = checkExpression(spec.mass.text, { variables: [coordinate], constants });
+  if (checked.ok) return { ok: true, value: Number.NaN, tree: checked.tree };
+  const message = explain(checked.token, checked.message, spec, coordinate, 'mass');
+  // Often a unit written in an atomic-unit block.
+  const hint = spec.quantity === null && message.startsWith('unknown name') ? '; a mass with a unit, such as 0.067 electronMass, needs quantity mode (units: { length: nm, energy: meV })' : '';
+  return { ok: false, problem: { field: 'mass', line, token: checked.token, message: message + hint } };
 }
 
 function tooLarge(tree: MathNode, order: 'first' | 'second', state: { field: string; line: number }): ExpressionProblem | null {

@@ -167,9 +167,12 @@ function meaningProblems(raw: RawBlock): Array<[(string | number)[], string]> {
   const found: Array<[(string | number)[], string]> = [];
   const quantityMode = isQuantityMode(raw);
   if (!quantityMode) {
+    const coordinate = raw.space === 'radial' ? 'r' : 'x';
     for (const [path, value] of quantityFields(raw)) {
-      // Text under mass is an expression of the coordinate (a position-dependent mass), read by compileBlock.
-      if (typeof value === 'string' && path[0] !== 'mass') found.push([path, `must be a number in atomic units; ${JSON.stringify(value)} is text (a quantity with a unit needs quantity mode: units: { length: nm, energy: meV })`]);
+      // Text under mass that names the coordinate is a position-dependent mass, read by compileBlock.
+      if (typeof value !== 'string' || (path[0] === 'mass' && namesCoordinate(value, coordinate))) continue;
+      const alternative = path[0] === 'mass' ? ` (or an expression of the coordinate ${coordinate}, for a mass that depends on it)` : '';
+      found.push([path, `must be a number in atomic units${alternative}; ${JSON.stringify(value)} is text (a quantity with a unit needs quantity mode: units: { length: nm, energy: meV })`]);
     }
   }
   if (raw.trial === undefined && raw.basis === undefined) found.push([['trial'], 'the block needs a trial function (trial) or a basis (basis)']);
@@ -205,6 +208,11 @@ function meaningProblems(raw: RawBlock): Array<[(string | number)[], string]> {
     if (!parameterNames.includes(name)) found.push([['claim', 'parameters', name], `claim names parameter ${name}, which the block does not declare`]);
   }
   return found;
+}
+
+/** Whether the text holds the coordinate as a name of its own (not inside exp or max). */
+function namesCoordinate(text: string, coordinate: 'x' | 'r'): boolean {
+  return new RegExp(`(^|[^A-Za-z0-9_])${coordinate}([^A-Za-z0-9_]|$)`).test(text);
 }
 
 function toSpec(raw: AtomicBlock, line: number, doc: Document, lineOf: (path: (string | number)[]) => number): BlockSpec {

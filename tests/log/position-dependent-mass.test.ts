@@ -56,13 +56,18 @@ describe('position-dependent mass in atomic units', () => {
     expect(relative(result.energy!.value, e0)).toBeLessThan(0.1);
   });
 
-  it('a mass written as an expression without the coordinate is a constant mass', () => {
-    const written = run('id: half\nmass: "1/2"\npotential: x^2/2\ntrial: exp(-a*x^2)\nparameters:\n  a: { start: 0.3, min: 0.01, max: 10 }');
-    const plain = run('id: half\nmass: 0.5\npotential: x^2/2\ntrial: exp(-a*x^2)\nparameters:\n  a: { start: 0.3, min: 0.01, max: 10 }');
-    // Harmonic oscillator: E0 = omega/2 with omega = sqrt(k/m) = sqrt(2) (any quantum mechanics text).
-    expect(relative(written.energy!.value, Math.SQRT2 / 2)).toBeLessThan(1e-9);
-    expect(written.energy!.value).toBe(plain.energy!.value);
-    expect(written.inputs!.mass).toBe(0.5);
+  it('refuses a mass with a name it does not know, on the mass line, pointing to quantity mode for units', () => {
+    const result = run(`id: step-unit\nmass: "abs(x) < 1.2 ? 0.6 : 1.7 electronMass"\npotential: "abs(x) < 1.2 ? 0 : 4"\ntrial: exp(-b*x^2)\nparameters:\n  b: { start: 0.5, min: 0.01, max: 10 }`);
+    expect(result.status).toBe('invalid');
+    expect(result.problems[0]).toMatchObject({ field: 'mass', line: 10 });
+    expect(result.problems[0].message).toMatch(/unknown name electronMass.*quantity mode/);
+  });
+
+  it('refuses the name mass in the potential when the mass depends on the coordinate', () => {
+    const result = run(`id: step-name\nmass: "abs(x) < 1.2 ? 0.6 : 1.7"\npotential: mass*x^2\ntrial: exp(-b*x^2)\nparameters:\n  b: { start: 0.5, min: 0.01, max: 10 }`);
+    expect(result.status).toBe('invalid');
+    expect(result.problems[0]).toMatchObject({ field: 'potential' });
+    expect(result.problems[0].message).toMatch(/the name mass has no single value/);
   });
 });
 
