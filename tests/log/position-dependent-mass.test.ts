@@ -1,6 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { evaluateBlock } from '../../src/log/evaluate-block.ts';
 import type { BlockResult } from '../../src/log/result-types.ts';
+import { provenance } from '../../src/log/provenance.ts';
+import { renderBlockPanel } from '../../src/render/block-panel.ts';
 import { parseRecord } from '../../src/spec/parse-record.ts';
 import { steppedWellLevel } from '../engine/bdd-square-well.ts';
 
@@ -33,6 +35,10 @@ describe('position-dependent mass in atomic units', () => {
     expect(result.virial).toBeNull();
     expect(result.inputs!.mass).toBeNull();
     expect(result.inputs!.massTex).toContain('1.7');
+    // The panel typesets m(x) and the BenDaniel–Duke kinetic operator (KaTeX keeps the TeX source as an annotation).
+    const html = renderBlockPanel(result, { file: FILE, git: null, provenance: provenance() });
+    expect(html).toContain('m(x) = ');
+    expect(html).toContain('\\frac{1}{m(x)}');
   });
 
   it('a trial that meets the BenDaniel–Duke conditions reaches the exact level with a vanishing variance', () => {
@@ -106,5 +112,21 @@ parameters:
     expect(result.status).toBe('invalid');
     expect(result.problems[0]).toMatchObject({ field: 'mass', line: 11 });
     expect(result.problems[0].message).toMatch(/the mass must be a mass/);
+  });
+});
+
+describe('position-dependent mass on the radial space', () => {
+  // The spherical well of tests/engine/mass-profile.test.ts (radius 1.5, depth 6, masses 0.5 inside and 1.3 outside):
+  // R = sin(k r)/r inside and sin(1.5 k) e^{-kappa (r - 1.5)}/r outside, with kappa from continuity of R'/m,
+  // (k cot(1.5 k) - 1/1.5)/0.5 = -(kappa + 1/1.5)/1.3 (BenDaniel & Duke). At the optimum over k the trial is exact.
+  const kappa = '(1.3/0.5)*(1/1.5 - k*cos(1.5*k)/sin(1.5*k)) - 1/1.5';
+  const trial = `r < 1.5 ? sin(k*r)/r : sin(1.5*k)*exp(-(${kappa})*(r - 1.5))/r`;
+  const block = `id: sphere-matched\nspace: radial\nmass: "r < 1.5 ? 0.5 : 1.3"\npotential: "r < 1.5 ? 0 : 6"\ntrial: "${trial}"\nparameters:\n  k: { start: 1.5, min: 1.1, max: 2 }`;
+
+  it('the matched trial meets the grid level (u = rR with the step term) and the variance vanishes', () => {
+    const result = run(block);
+    expect(result.status, result.message ?? '').toBe('confirmed');
+    expect(relative(result.energy!.value, result.reference!.energy!)).toBeLessThan(1e-8);
+    expect(result.variance!).toBeLessThan(1e-6 * result.energy!.value ** 2);
   });
 });
