@@ -93,7 +93,7 @@ export function convertQuantityBlock(file: string, block: QuantityBlockSource): 
 
   const scope: { variables: Record<string, DimensionOrAny>; constants: Record<string, { dimension: DimensionOrAny; atomic: number }> } = {
     variables: { [block.space === 'radial' ? 'r' : 'x']: LENGTH },
-    constants: { ...QUANTITY_SCOPE.constants, ...(typeof mass === 'number' ? { mass: { dimension: MASS, atomic: mass } } : {}) },
+    constants: { ...QUANTITY_SCOPE.constants, ...(massProfile || typeof mass !== 'number' ? {} : { mass: { dimension: MASS, atomic: mass } }) },
   };
   const declared: Record<string, number> = {};
   const fixed: Record<string, number> = {};
@@ -136,7 +136,7 @@ export function convertQuantityBlock(file: string, block: QuantityBlockSource): 
     else if (left && right) reader.complain('box', block.box[0].line, `box [${block.box[0].text}, ${block.box[1].text}] must have its left wall below its right wall`);
   }
 
-  const bound = checkExpressions(reader, block, scope);
+  const bound = checkExpressions(reader, block, scope, massProfile !== null);
   if (massProfile) {
     const profileBound = checkMassProfile(reader, massProfile, scope, block.varied.map((p) => p.name));
     if (profileBound) {
@@ -210,7 +210,7 @@ export function convertQuantityBlock(file: string, block: QuantityBlockSource): 
 }
 
 /** Checks the potential (an energy) and the trial or basis once, before any numerics; returns the mathjs names they use. */
-function checkExpressions(reader: FieldReader, block: QuantityBlockSource, scope: DimensionScope): Record<string, number> {
+function checkExpressions(reader: FieldReader, block: QuantityBlockSource, scope: DimensionScope, massVaries: boolean): Record<string, number> {
   const bound: Record<string, number> = {};
   const fields: Array<[string, SourceText]> = [['potential', block.potential]];
   if (block.trial) fields.push(['trial', block.trial]);
@@ -218,7 +218,8 @@ function checkExpressions(reader: FieldReader, block: QuantityBlockSource, scope
   for (const [field, source] of fields) {
     const analysed = analyseExpression(source.text, scope);
     if (!analysed.ok) {
-      reader.complain(field, source.line, analysed.message);
+      const unbound = massVaries && analysed.token === 'mass';
+      reader.complain(field, source.line, unbound ? 'the mass depends on the coordinate in this block, so the name mass has no single value; write the mass it should stand for' : analysed.message);
       continue;
     }
     if (field === 'potential' && analysed.dimension !== ANY && !sameDimension(analysed.dimension, ENERGY)) {
