@@ -122,6 +122,8 @@ const EXPECTED: Record<string, Expected> = {
   'front-matter-broken': { record: [{ field: 'title', at: 'title:', message: 'front matter is not valid YAML: Missing closing "quote' }], blocks: [healthy('fm-f1')] },
   'front-matter-missing': { record: [{ field: 'front matter', at: 'Front matter F2', message: 'the record has no YAML front matter' }], blocks: [healthy('fm-f2')] },
   'front-matter-unclosed': { record: [{ field: 'front matter', at: '---', message: 'is never closed' }], blocks: [healthy('fm-f3')] },
+  // ISO 8601 calendar dates have months 01 to 12.
+  'front-matter-bad-date': { record: [{ field: 'date', at: 'date:', message: 'front matter date 2027-13-45 has month 13' }], blocks: [healthy('fm-f5')] },
   'front-matter-wrong-types': {
     record: [
       { field: 'tags', at: 'tags: corpus', message: 'front matter tags must be a list' },
@@ -196,13 +198,13 @@ describe('the broken-record corpus', () => {
     const statuses = names.flatMap((name) => result(name).blocks.map((b) => b.status));
     for (const status of statuses) expect(STATUS_ORDER).toContain(status);
     const count = (s: string) => statuses.filter((t) => t === s).length;
-    // 62 blocks: 54 invalid, 5 healthy (confirmed), one each of disputed, below-reference, unsettled.
+    // 63 blocks: 54 invalid, 6 healthy (confirmed), one each of disputed, below-reference, unsettled.
     expect({ invalid: count('invalid'), 'below-reference': count('below-reference'), unsettled: count('unsettled'), disputed: count('disputed'), confirmed: count('confirmed') }).toEqual({
       invalid: 54,
       'below-reference': 1,
       unsettled: 1,
       disputed: 1,
-      confirmed: 5,
+      confirmed: 6,
     });
   });
 });
