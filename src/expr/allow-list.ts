@@ -18,6 +18,8 @@ export interface NameScope {
   variables: readonly string[];
   /** Names that stand for a number (constants, fixed parameters, built-ins). */
   constants: Readonly<Record<string, number>>;
+  /** Further names a writer may have meant (quantity mode's physical constants): offered in suggestions only. */
+  suggestable?: readonly string[];
 }
 
 export type CheckResult = { ok: true; tree: MathNode } | { ok: false; token: string; message: string };
@@ -82,7 +84,7 @@ function refuse(node: MathNode, scope: NameScope, context: Context): { token: st
       const name = any.name as string;
       if (declared(scope, name)) return context === 'value' ? null : notACondition(node);
       if ((RECORD_FUNCTIONS as readonly string[]).includes(name)) return { token: name, message: `unknown name ${name}: ${name} is a function, write ${name}(...)` };
-      const near = nearestName(name, [...scope.variables, ...Object.keys(scope.constants)]);
+      const near = nearestName(name, [...scope.variables, ...Object.keys(scope.constants), ...(scope.suggestable ?? [])]);
       const advice = near === null ? 'declare it under parameters or constants' : `did you mean ${near}? (or declare ${name} under parameters or constants)`;
       return { token: name, message: `unknown name ${name}: ${advice}` };
     }

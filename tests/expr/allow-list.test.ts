@@ -185,6 +185,11 @@ describe('checkExpression: refusals that say what to write instead', () => {
     expect(r.ok).toBe(false);
     if (!r.ok) expect(r.message).toBe('unknown name omga: did you mean omega? (or declare omga under parameters or constants)');
   });
+  it('names that are only suggestable (quantity mode constants) are offered but not accepted', () => {
+    const r = checkExpression('elementaryCharg * x', { ...scope, suggestable: ['elementaryCharge', 'electronMass'] });
+    expect(r.ok).toBe(false);
+    if (!r.ok) expect(r.message).toMatch(/^unknown name elementaryCharg: did you mean elementaryCharge\?/);
+  });
   it('a name close to nothing declared only asks for a declaration', () => {
     expect(refusal('x * lambda').message).toBe('unknown name lambda: declare it under parameters or constants');
   });

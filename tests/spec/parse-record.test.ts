@@ -339,3 +339,11 @@ describe('parseRecord: uncertain inputs are refused as not supported yet', () =>
     expect(p).toEqual([expect.objectContaining({ field, message: expect.stringContaining('uncertain inputs ({ value, uncertainty }) are not supported yet') })]);
   });
 });
+
+describe('parseRecord: a misspelt physical constant in quantity mode gets the mathjs name', () => {
+  it('elementaryCharg -> elementaryCharge', () => {
+    const body = 'id: q1\nunits: { length: nm, energy: meV }\nspace: radial\npotential: -elementaryCharg^2 / (4 pi electricConstant 12.9 r)\ntrial: exp(-r / b)\nparameters:\n  b: { start: 5 nm, min: 0.5 nm, max: 50 nm }\n';
+    const p = problems(one(body));
+    expect(p).toEqual([expect.objectContaining({ field: 'potential', message: expect.stringMatching(/^unknown name elementaryCharg: did you mean elementaryCharge\?/) })]);
+  });
+});
