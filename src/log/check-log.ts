@@ -53,6 +53,11 @@ export interface CheckLogOptions {
   recompute?: boolean;
   /** Use this configuration instead of reading the root's. */
   config?: LogConfig;
+  /**
+   * The record parser. Without it, it is imported on the first record that is not in the cache; a caller
+   * whose module loader cannot import later (the site's integration, run by Vite) passes it.
+   */
+  parseRecord?: (file: string, text: string) => RecordSpec;
 }
 
 export interface CheckStats {
@@ -85,7 +90,7 @@ export async function checkLog(files: string[], options: CheckLogOptions = {}): 
   // Each record is finished from the cache's record index, or parsed: spec and texts kept for the rest.
   const done: Array<RecordResult | null> = [];
   const parsed: Array<{ spec: RecordSpec; text: string } | null> = [];
-  let parseRecord: typeof import('../spec/parse-record.ts').parseRecord | undefined;
+  let parseRecord = options.parseRecord;
   for (const file of files) {
     const read = readRecordText(file, root);
     const hit = read.kind === 'unreadable' ? read.result : options.recompute ? null : cache.getRecord(read.name, read.text);
