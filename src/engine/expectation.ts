@@ -26,7 +26,8 @@ export interface Expectation {
 export const EXPECTATION_DEFAULTS = { relTol: 1e-12, maxIntervals: 2000 };
 
 /**
- * N = <psi|psi>, <T> = (hbar^2/2m) <psi'|psi'> (plus the space's angular part, with its volume element) and <V>,
+ * N = <psi|psi>, <T> = (hbar^2/2m) <psi'|psi'> (plus the space's angular part, with its volume element; a mass m(x) that depends on the coordinate goes
+ * inside the integral, BenDaniel & Duke, Phys. Rev. 152, 683 (1966)) and <V>,
  * in one vector quadrature over the space; the |psi'|^2 form needs no second derivative and is exact for
  * trials that vanish at the walls.
  */
@@ -43,16 +44,19 @@ export function placedExpectation(problem: VariationalProblem, domain: Coordinat
   const trialBreaks = findBreakpoints(trial.switches, domain.lo, domain.hi, probe.center, probe.scale);
   const centre = Number.isFinite(domain.lo) ? [] : [probe.center];
   const splits = splitPoints(domain, [...potentialBreaks, ...trialBreaks.points, ...centre]);
-  const integrand = domain.energyIntegrand(trial, potential);
+  const profile = problem.massProfile ?? null;
+  const integrand = domain.energyIntegrand(trial, potential, profile);
   const result = integrateVector(integrand, 3, { breakpoints: splits, scale: probe.scale, start, ...EXPECTATION_DEFAULTS });
   const evaluations = trialBreaks.evaluations + result.evaluations;
   const [n, tk, v] = result.values;
   const norm = n;
-  const kinetic = tk / (2 * mass) / norm;
+  // With a position-dependent mass, 1/m(x) sits inside the kinetic integral already.
+  const twoMass = profile ? 2 : 2 * mass;
+  const kinetic = tk / twoMass / norm;
   const potentialEnergy = v / norm;
   const energy = kinetic + potentialEnergy;
   const [en, et, ev] = result.errorEstimates;
-  const errorEstimate = (et / (2 * mass) + ev + Math.abs(energy) * en) / Math.abs(norm);
+  const errorEstimate = (et / twoMass + ev + Math.abs(energy) * en) / Math.abs(norm);
   const failure = classifyFailure(result, probe);
   return {
     energy: failure ? Infinity : energy,

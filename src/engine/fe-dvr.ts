@@ -7,7 +7,12 @@ export type Outcome<T> = { ok: true; value: T } | { ok: false; message: string; 
 
 /** What the assembly reads of a grid problem. */
 export interface Assembly {
-  mass: number;
+  /** The mass at x (constant unless the problem has a mass profile): WKB wavenumbers and kinetic scales. */
+  massAt: (x: number) => number;
+  /** The position-dependent mass, or null for the constant-mass kinetic matrix. */
+  profile: { value(x: number): number } | null;
+  /** Whether a step of a position-dependent mass at an edge node adds the radial step term (space radial). */
+  radialMassSteps: boolean;
   /** The potential on the diagonal (with a centrifugal term where the space's grid function carries one). */
   veff: (x: number) => number;
   breakpoints: number[];
@@ -77,16 +82,18 @@ export function buildGrid(ctx: Assembly, boundaries: number[], order: number): O
   const bandwidth = step;
   const width = bandwidth + 1;
   const upper = new Float64Array(size * width);
-  const kineticFactor = 1 / (2 * ctx.mass);
+  const kineticFactor = ctx.profile ? 0.5 : 1 / (2 * ctx.massAt(0));
   for (let e = 0; e < elements; e++) {
     const scale = kineticFactor / (0.5 * (boundaries[e + 1] - boundaries[e]));
+    const element = ctx.profile ? elementStiffness(ctx.profile.value, rule, boundaries[e], boundaries[e + 1]) : stiffness;
+    if (!element) return { ok: false, message: `the mass is not a positive finite number in the element [${boundaries[e]}, ${boundaries[e + 1]}]` };
     for (let i = 0; i < order; i++) {
       const row = e * step + i - 1;
       if (row < 0 || row >= size) continue;
       for (let j = i; j < order; j++) {
         const column = e * step + j - 1;
         if (column >= size) continue;
-        upper[row * width + column - row] += scale * stiffness[i * order + j];
+        upper[row * width + column - row] += scale * element[i * order + j];
       }
     }
   }
@@ -131,7 +138,7 @@ function buildWeightedGrid(ctx: Assembly, power: number, boundaries: number[], o
   const bandwidth = step;
   const width = bandwidth + 1;
   const upper = new Float64Array(size * width);
-  const kineticFactor = 1 / (2 * ctx.mass);
+  const kineticFactor = 1 / (2 * ctx.massAt(0));
   const local = new Float64Array(order * order);
   for (let e = 0; e < elements; e++) {
     const half = 0.5 * (boundaries[e + 1] - boundaries[e]);
@@ -182,7 +189,7 @@ function withPotential(ctx: Assembly, boundaries: number[], a: Assembled, report
   const potential = new Float64Array(size);
   for (let row = 0; row < size; row++) {
     const e = (row + offset) / step;
-    const v = Number.isInteger(e) && e > 0 && breaks.has(boundaries[e]) ? breakpointPotential(ctx, boundaries, e) : ctx.veff(nodes[row]);
+    const v = Number.isInteger(e) && e > 0 && breaks.has(boundaries[e]) ? breakpointPotential(ctx, boundaries, e) + radialMassStep(ctx, boundaries, e, weights[row]) : ctx.veff(nodes[row]);
     if (!Number.isFinite(v)) return { ok: false, message: `the potential is not finite at x = ${nodes[row]} (V = ${v})` };
     for (let k = 0; k < width && row + k < size; k++) upper[row * width + k] /= Math.sqrt(weights[row] * weights[row + k]);
     upper[row * width] += v;
@@ -201,4 +208,45 @@ function breakpointPotential(ctx: Assembly, boundaries: number[], index: number)
   const rightLength = boundaries[index + 1] - x;
   const offset = 4 * Number.EPSILON * Math.max(Math.abs(x), leftLength, rightLength);
   return (leftLength * ctx.veff(x - offset) + rightLength * ctx.veff(x + offset)) / (leftLength + rightLength);
+}
+
+/**
+ * The element's stiffness (int l_i' l_j' / m on the reference element) by its own GLL rule, with 1/m at the nodes;
+ * the end nodes take the mass from inside the element, so a mass step on an edge is seen from each side. Null where
+ * the mass is not positive and finite.
+ */
+function elementStiffness(mass: (x: number) => number, rule: GllRule, left: number, right: number): Float64Array | null {
+  const order = rule.nodes.length;
+  const half = 0.5 * (right - left);
+  const mid = 0.5 * (right + left);
+  const offset = 4 * Number.EPSILON * Math.max(Math.abs(left), Math.abs(right), right - left);
+  const inverse = new Float64Array(order);
+  for (let k = 0; k < order; k++) {
+    const x = k === 0 ? left + offset : k === order - 1 ? right - offset : mid + half * rule.nodes[k];
+    const m = mass(x);
+    if (!(m > 0) || !Number.isFinite(m)) return null;
+    inverse[k] = 1 / m;
+  }
+  const { weights, derivative } = rule;
+  const stiffness = new Float64Array(order * order);
+  for (let i = 0; i < order; i++) {
+    for (let j = 0; j < order; j++) {
+      let s = 0;
+      for (let k = 0; k < order; k++) s += weights[k] * inverse[k] * derivative[k * order + i] * derivative[k * order + j];
+      stiffness[i * order + j] = s;
+    }
+  }
+  return stiffness;
+}
+
+/**
+ * Radially, a step of the mass at an edge node r0 puts (1/2) [1/m] u(r0)^2 / r0 into <T> (the step part of
+ * (1/2) int u^2 (1/m)' / r dr); the node's DVR function has u(r0)^2 = 1/W there. Zero on the line and for a constant mass.
+ */
+function radialMassStep(ctx: Assembly, boundaries: number[], index: number, weight: number): number {
+  if (!ctx.profile || !ctx.radialMassSteps) return 0;
+  const x = boundaries[index];
+  const offset = 4 * Number.EPSILON * Math.max(Math.abs(x), x - boundaries[index - 1], boundaries[index + 1] - x);
+  const jump = 1 / ctx.profile.value(x + offset) - 1 / ctx.profile.value(x - offset);
+  return jump / (2 * x * weight);
 }

@@ -7,9 +7,21 @@ import { buildGrid, type Assembly, type Grid, type Outcome } from './fe-dvr.ts';
 
 export type GridSpace = 'line' | 'half-line' | 'radial' | 'box' | 'plane';
 
+/** A mass that depends on the coordinate, with its slope (zero on either side of a step). */
+export interface GridMassProfile {
+  value(x: number): number;
+  d1(x: number): number;
+}
+
 export interface GridProblem {
   space: GridSpace;
+  /** The constant mass; ignored when massProfile is given. */
   mass: number;
+  /**
+   * A mass that depends on the coordinate: the kinetic matrix takes 1/m at the quadrature nodes (BenDaniel–Duke form
+   * (1/2) int chi_i' chi_j' / m), and its steps must be among `breakpoints`, so that they fall on element edges.
+   */
+  massProfile?: GridMassProfile | null;
   potential: (x: number) => number;
   angularMomentum?: number;
   box?: [number, number];
@@ -118,6 +130,19 @@ interface Solution {
 function countingPotential(problem: GridProblem, counters: Context['counters']): (x: number) => number {
   // The plane's grid solves for f = R / r^|m| in its weighted form, which has no centrifugal term.
   const l = problem.space === 'radial' ? (problem.angularMomentum ?? 0) : 0;
+  const profile = problem.massProfile;
+  if (profile) {
+    // With u = r R, <T> = (1/2) int (r^2 |R'|^2 + l(l+1) |R|^2) / m dr = (1/2) int |u'|^2 / m dr + (1/2) int u^2 (1/m)' / r dr:
+    // the smooth part of (1/m)' / (2r) joins the effective potential (steps are added on the grid's edge nodes).
+    const radial = problem.space === 'radial';
+    return (x: number) => {
+      counters.evaluations++;
+      const v = problem.potential(x);
+      if (!radial) return v;
+      const m = profile.value(x);
+      return v + (l * (l + 1)) / (2 * m * x * x) - profile.d1(x) / (2 * x * m * m);
+    };
+  }
   const centrifugal = (l * (l + 1)) / (2 * problem.mass);
   return (x: number) => {
     counters.evaluations++;
@@ -158,10 +183,10 @@ function continuumThreshold(ctx: Context, estimate: StateEstimate): number {
   }
 }
 
-function initialEstimate(problem: GridProblem, box: [number, number] | null, veff: (x: number) => number): StateEstimate {
+function initialEstimate(problem: GridProblem, box: [number, number] | null, veff: (x: number) => number, massAt: (x: number) => number): StateEstimate {
   const center = problem.hint?.center ?? (box ? 0.5 * (box[0] + box[1]) : problem.space === 'line' ? 0 : 1);
   const width = problem.hint?.width ?? (box ? 0.25 * (box[1] - box[0]) : 1);
-  const kinetic = 1 / (2 * problem.mass * width * width);
+  const kinetic = 1 / (2 * massAt(center) * width * width);
   const v = veff(center);
   return { energy: Number.isFinite(v) ? v + kinetic : kinetic, spread: kinetic, settleScale: kinetic, center, width };
 }
@@ -178,10 +203,10 @@ function initialDomain(problem: GridProblem, box: [number, number] | null, estim
 /** Local resolution demand: WKB wavenumber sqrt(2m|V - E|), capped at singularities, plus a floor for flat regions. */
 function meshDensity(ctx: Context, estimate: StateEstimate): (x: number) => number {
   const cap = densityCap * estimate.spread;
-  const floor = 0.5 * Math.sqrt(2 * ctx.mass * estimate.spread);
   return (x: number) => {
     const gap = Math.abs(ctx.veff(x) - estimate.energy);
-    return Math.sqrt(2 * ctx.mass * (gap < cap ? gap : cap)) + floor;
+    const mass = ctx.massAt(x);
+    return Math.sqrt(2 * mass * (gap < cap ? gap : cap)) + 0.5 * Math.sqrt(2 * mass * estimate.spread);
   };
 }
 
@@ -264,7 +289,7 @@ function estimateFrom(ctx: Context, solution: Solution, fallback: StateEstimate)
   // The ground state's kinetic energy <T> = E0 - <V> is the local energy scale even where levels are nearly degenerate.
   const spreadUpTo = (top: number) => {
     const spread = Math.max(top - e0, Number.isFinite(ctx.threshold) ? ctx.threshold - e0 : 0, e0 - meanPotential);
-    return spread > 0 ? spread : 1 / (2 * ctx.mass * width * width);
+    return spread > 0 ? spread : 1 / (2 * ctx.massAt(center) * width * width);
   };
   const second = solution.bound[Math.min(1, solution.bound.length - 1)];
   return { energy, spread: spreadUpTo(energy), settleScale: spreadUpTo(second), center, width };
@@ -283,7 +308,7 @@ function tailEnd(ctx: Context, estimate: StateEstimate, direction: number, depth
     const v = ctx.veff(x);
     if (Number.isNaN(v)) return { ok: false, message: `the potential is NaN at x = ${x}` };
     if (v === Infinity) return { ok: true, value: x };
-    const kappa2 = 2 * ctx.mass * (v - energy);
+    const kappa2 = 2 * ctx.massAt(x) * (v - energy);
     const distance = Math.abs(x - center);
     if (steps > 100000 || distance > 1e9 * width) {
       return { ok: false, message: `the tail of the level ${energy} does not decay within ${distance} of x = ${center}` };
@@ -486,7 +511,8 @@ function report(ctx: Context, refined: Refined): GridLevels {
 }
 
 function validate(problem: GridProblem): string | null {
-  if (!(problem.mass > 0) || !Number.isFinite(problem.mass)) return `mass must be positive and finite, got ${problem.mass}`;
+  if (!problem.massProfile && (!(problem.mass > 0) || !Number.isFinite(problem.mass))) return `mass must be positive and finite, got ${problem.mass}`;
+  if (problem.massProfile && problem.space === 'plane') return 'a mass that depends on the coordinate is not available on the plane grid';
   if (problem.space === 'box') {
     const box = problem.box;
     if (!box || !(box[1] > box[0]) || !box.every(Number.isFinite)) return 'a box problem needs box = [a, b] with a < b';
@@ -525,7 +551,8 @@ export function gridLevels(problem: GridProblem): GridLevels {
   const base: Context = {
     space: problem.space,
     box,
-    mass: problem.mass,
+    massAt: problem.massProfile ? problem.massProfile.value : () => problem.mass,
+    profile: problem.massProfile ?? null,
     veff,
     threshold: NaN,
     breakpoints: problem.breakpoints ?? [],
@@ -535,10 +562,11 @@ export function gridLevels(problem: GridProblem): GridLevels {
     maxNodes: problem.maxNodes ?? GRID_DEFAULTS.maxNodes,
     counters,
     power: problem.space === 'plane' ? 2 * Math.abs(problem.angularMomentum ?? 0) + 1 : null,
+    radialMassSteps: problem.space === 'radial',
   };
   const invalid = validate(problem);
   if (invalid) return failure(base, invalid);
-  const first = initialEstimate(problem, box, veff);
+  const first = initialEstimate(problem, box, veff, base.massAt);
   const ctx: Context = { ...base, threshold: continuumThreshold(base, first) };
   if (Number.isNaN(ctx.threshold)) return failure(ctx, 'the potential is NaN far out, so the continuum threshold is unknown');
   if (ctx.threshold === -Infinity) return failure(ctx, 'the potential is unbounded below at an open end: there are no bound states');

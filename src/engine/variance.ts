@@ -1,4 +1,5 @@
 import type { Expectation } from './expectation.ts';
+import { g } from './format.ts';
 import type { VariationalProblem } from './problem.ts';
 import { integrateVector } from './quadrature.ts';
 import type { CoordinateSpace } from './spaces/space.ts';
@@ -25,16 +26,27 @@ export function energyVariance(problem: VariationalProblem, domain: CoordinateSp
   const { splits, partition, norm, energy } = at;
   const { scale, peakAmplitude } = at.probe;
   const { trial, potential, mass } = problem;
-  // A kink of the trial puts a delta function into H psi: the variance is then infinite.
+  const profile = problem.massProfile ?? null;
+  // A kink of the trial puts a delta function into H psi: the variance is then infinite. With a mass m(x) the
+  // flux psi'/m is what must be continuous (BenDaniel & Duke, Phys. Rev. 152, 683 (1966)), also across a mass step.
   for (const x of splits) {
     if (!Number.isFinite(x) || x === domain.lo || x === domain.hi) continue;
     const h = 1e-7 * Math.max(scale, Math.abs(x));
-    const jump = Math.abs(trial.d1(x + h) - trial.d1(x - h));
-    if (jump > CUSP_TOLERANCE * (peakAmplitude / scale)) {
-      return { value: null, errorEstimate: 0, note: `the trial's slope jumps at ${x.toPrecision(6)}, so H psi holds a delta function and the variance is infinite`, evaluations: 2 };
+    if (!profile) {
+      const jump = Math.abs(trial.d1(x + h) - trial.d1(x - h));
+      if (jump > CUSP_TOLERANCE * (peakAmplitude / scale)) {
+        return { value: null, errorEstimate: 0, note: `the trial's slope jumps at ${x.toPrecision(6)}, so H psi holds a delta function and the variance is infinite`, evaluations: 2 };
+      }
+      continue;
+    }
+    const [mLeft, mRight] = [profile.value(x - h), profile.value(x + h)];
+    const jump = Math.abs(trial.d1(x + h) / mRight - trial.d1(x - h) / mLeft);
+    if (jump > (CUSP_TOLERANCE * (peakAmplitude / scale)) / Math.max(mLeft, mRight)) {
+      const where = mLeft === mRight ? "the trial's slope jumps" : `the mass steps from ${g(mLeft, 6)} to ${g(mRight, 6)} and the trial's psi'/m is not continuous (BenDaniel–Duke)`;
+      return { value: null, errorEstimate: 0, note: `at ${x.toPrecision(6)} ${where}, so H psi holds a delta function and the variance is infinite`, evaluations: 2 };
     }
   }
-  const integrand = domain.varianceIntegrand(trial, potential, mass, energy);
+  const integrand = domain.varianceIntegrand(trial, potential, mass, energy, profile);
   // A nearly exact trial has a variance at rounding level, which no relative tolerance can resolve.
   const absTol = VARIANCE_FLOOR * Math.max(energy * energy, 1e-300) * norm;
   // The energy integrals' panels, on the same split points and scale, are a good start for H psi too.

@@ -19,10 +19,15 @@ const HBAR = 1;
  */
 export const MAX_DERIVATIVE_SIZE = 20_000;
 
-/** The names with a value in every expression of the block; `mass` only where the block has one mass. */
+/** The names with a value in every expression of the block, besides `mass` (which may not have one). */
+export function sharedConstants(spec: BlockSpec): Record<string, number> {
+  return { pi: Math.PI, e: Math.E, ...spec.constants, ...spec.fixed, hbar: HBAR };
+}
+
+/** The names with a value in every expression of the block; `mass` only where the block has one constant mass. */
 export function blockConstants(spec: BlockSpec): Record<string, number> {
-  const constants: Record<string, number> = { pi: Math.PI, e: Math.E, ...spec.constants, ...spec.fixed, hbar: HBAR };
-  if (spec.masses === null) constants.mass = spec.mass;
+  const constants = sharedConstants(spec);
+  if (spec.masses === null && typeof spec.mass === 'number') constants.mass = spec.mass;
   return constants;
 }
 
@@ -47,8 +52,11 @@ const SPACE_COORDINATES: Record<string, string> = { x: 'line, half-line', r: 'ra
 
 /** The allow-list's refusal, said in the block's terms where a block-level reason is known. */
 export function explainRefusal(token: string, message: string, spec: BlockSpec, field: string): string {
-  if (field === 'potential' && spec.varied.some((p) => p.name === token)) {
-    return `the potential may not depend on the varied parameter ${token}; hold it fixed (a plain value under parameters) or move it to constants`;
+  if ((field === 'potential' || field === 'mass') && spec.varied.some((p) => p.name === token)) {
+    return `the ${field} may not depend on the varied parameter ${token}; hold it fixed (a plain value under parameters) or move it to constants`;
+  }
+  if (token === 'mass' && typeof spec.mass !== 'number') {
+    return field === 'mass' ? 'the mass may not refer to itself (mass)' : `the mass depends on the coordinate in this block, so the name mass has no single value; write the number it should stand for`;
   }
   const coordinates = coordinatesOf(spec.space);
   const own = coordinates.length === 1 ? `the coordinate of space ${spaceLabel(spec.space)} is ${coordinates[0]}` : `the coordinates of space ${spaceLabel(spec.space)} are ${coordinates.join(', ')}`;

@@ -29,13 +29,14 @@ export function evaluateBlock(file: string, entry: BlockEntry): BlockResult {
     const problems = evaluated.problems.map((p) => ({ file, line: p.line, block: spec.id, field: p.field, message: p.message }));
     return invalidBlock(spec.id, spec.line, spec.caption, problems, hash, started);
   }
-  const { engine, trees } = evaluated;
+  const { engine, trees, mass } = evaluated;
   const inputs: BlockInputs = {
     space: spec.space,
     coordinates: coordinatesOf(spec.space),
     box: spec.box,
     angularMomentum: spec.angularMomentum,
-    mass: spec.mass,
+    mass: trees.mass ? null : mass,
+    massTex: trees.mass?.toTex() ?? null,
     masses: spec.masses,
     coordinate: coordinatesOf(spec.space)[0],
     lengthUnit: 'bohr',
@@ -50,7 +51,7 @@ export function evaluateBlock(file: string, entry: BlockEntry): BlockResult {
 }
 
 type Evaluated =
-  | { ok: true; engine: EngineResult; trees: { potential: MathNode; trial: MathNode | null; basis: MathNode[] | null } }
+  | { ok: true; engine: EngineResult; trees: { potential: MathNode; mass: MathNode | null; trial: MathNode | null; basis: MathNode[] | null }; mass: number }
   | { ok: false; problems: Array<{ line: number; field: string | null; message: string }> };
 
 /** A block on a space of one coordinate: compiled to functions of x (or r), evaluated by the one-coordinate engine. */
@@ -61,13 +62,14 @@ function evaluateLineBlock(spec: BlockSpec): Evaluated {
     space: spec.space as LineSpace,
     box: spec.box,
     angularMomentum: spec.angularMomentum,
-    mass: spec.mass,
+    mass: compiled.block.mass,
+    massProfile: compiled.block.massProfile,
     potential: compiled.block.potential,
     potentialSwitches: compiled.block.potentialSwitches,
     ...shared(spec),
   };
   const { trial, basis } = compiled.block;
-  return guarded(spec, () => (trial ? evaluateProblem({ ...base, trial }) : evaluateBasisProblem({ ...base, basis: basis!, states: spec.states })), compiled.block.trees);
+  return guarded(spec, () => (trial ? evaluateProblem({ ...base, trial }) : evaluateBasisProblem({ ...base, basis: basis!, states: spec.states })), compiled.block.trees, compiled.block.mass);
 }
 
 /** A block on axial or a product space: compiled to functions of a point, evaluated by product cubature and grid. */
@@ -76,12 +78,14 @@ function evaluateFieldBlock(spec: BlockSpec): Evaluated {
   if (!compiled.ok) return { ok: false, problems: compiled.problems };
   const { block } = compiled;
   const written = spec.space;
+  // The spec refuses a mass that depends on the coordinates here, so it is one number (1 when given per coordinate).
+  const mass = spec.mass as number;
   const space =
     typeof written === 'object'
-      ? cartesianSpace(Object.entries(written).map(([name, range]) => ({ name, range, mass: spec.masses?.[name] ?? spec.mass })))
-      : axialSpace(spec.angularMomentum, spec.mass);
+      ? cartesianSpace(Object.entries(written).map(([name, range]) => ({ name, range, mass: spec.masses?.[name] ?? mass })))
+      : axialSpace(spec.angularMomentum, mass);
   const problem: FieldProblem = { space, potential: block.potential, potentialSwitches: block.potentialSwitches, trial: block.trial, ...shared(spec) };
-  return guarded(spec, () => evaluateFieldProblem(problem), { potential: block.trees.potential, trial: block.trees.trial, basis: null });
+  return guarded(spec, () => evaluateFieldProblem(problem), { potential: block.trees.potential, mass: null, trial: block.trees.trial, basis: null }, mass);
 }
 
 /** What every engine problem takes from the spec besides its space, potential and trial. */
@@ -99,9 +103,9 @@ function shared(spec: BlockSpec): Pick<ProblemBase, 'parameters' | 'reference' |
 }
 
 /** The evaluation, with an exception (a bug, never bad input) turned into an invalid block. */
-function guarded(spec: BlockSpec, run: () => EngineResult, trees: Extract<Evaluated, { ok: true }>['trees']): Evaluated {
+function guarded(spec: BlockSpec, run: () => EngineResult, trees: Extract<Evaluated, { ok: true }>['trees'], mass: number): Evaluated {
   try {
-    return { ok: true, engine: run(), trees };
+    return { ok: true, engine: run(), trees, mass };
   } catch (error) {
     const reason = error instanceof Error ? error.message : String(error);
     return { ok: false, problems: [{ line: spec.line, field: null, message: `the evaluation failed: ${reason}` }] };
@@ -122,7 +126,9 @@ function toBlockResult(file: string, spec: BlockSpec, inputs: BlockInputs, engin
           .map((c) =>
             c.field === 'potential'
               ? { file, line: spec.potential.line, block: spec.id, field: 'potential', message: c.detail }
-              : { file, line: (spec.trial ?? spec.basis![0]).line, block: spec.id, field: spec.trial ? 'trial' : 'basis', message: c.detail },
+              : c.field === 'mass'
+                ? { file, line: typeof spec.mass === 'number' ? spec.line : spec.mass.line, block: spec.id, field: 'mass', message: c.detail }
+                : { file, line: (spec.trial ?? spec.basis![0]).line, block: spec.id, field: spec.trial ? 'trial' : 'basis', message: c.detail },
           ) : [];
   return {
     id: spec.id,

@@ -18,7 +18,10 @@ export interface BlockInputs {
   coordinates: string[];
   box: [number, number] | null;
   angularMomentum: number;
-  mass: number;
+  /** The constant mass (electron masses), or null when it depends on the coordinate (see massTex). */
+  mass: number | null;
+  /** A position-dependent mass typeset, or null for a constant one. */
+  massTex: string | null;
   /** The mass per coordinate of a product space that gives one; null otherwise. */
   masses: Record<string, number> | null;
   /** The first coordinate (the only one of a space of one coordinate). */

@@ -1,7 +1,7 @@
 import katex from 'katex';
 import type { LastCommit } from '../log/git-audit.ts';
 import type { Provenance } from '../log/provenance.ts';
-import type { BlockResult } from '../log/result-types.ts';
+import type { BlockInputs, BlockResult } from '../log/result-types.ts';
 import { escapeHtml, formatNumber } from './html.ts';
 import { renderPlots } from './plots.ts';
 
@@ -50,24 +50,19 @@ export function renderBlockPanel(result: BlockResult, context: PanelContext): st
   return parts.join('\n');
 }
 
-/** The kinetic-energy operator of the block's space (radial and plane: on the radial factor, with its angular part). */
-function kineticTex(inputs: NonNullable<BlockResult['inputs']>): string {
-  const l = inputs.angularMomentum;
-  if (inputs.space === 'radial') return `-\\frac{\\hbar^2}{2m}\\frac{1}{r^2}\\frac{d}{dr}r^2\\frac{d}{dr}${l ? `+\\frac{${l * (l + 1)}\\hbar^2}{2m r^2}` : ''}`;
-  if (inputs.space === 'plane') return `-\\frac{\\hbar^2}{2m}\\frac{1}{r}\\frac{d}{dr}r\\frac{d}{dr}${l ? `+\\frac{${l * l}\\hbar^2}{2m r^2}` : ''}`;
-  return `-\\frac{\\hbar^2}{2m}\\frac{d^2}{d${inputs.coordinate}^2}`;
-}
-
 function renderInputs(result: BlockResult): string {
   const inputs = result.inputs!;
   const q = inputs.coordinate;
-  const kinetic = kineticTex(inputs);
-  const where = inputs.box ? `${q} \\in [${inputs.box[0]}, ${inputs.box[1]}]` : inputs.space === 'line' ? `${q} \\in \\mathbb{R}` : `${q} \\ge 0`;
+  const kinetic = inputs.massTex === null ? constantMassKinetic(inputs) : profileKinetic(inputs);
+  const massTex = inputs.masses
+    ? Object.entries(inputs.masses).map(([c, m]) => `m_{${coordinateTex(c)}} = ${m}`).join(', ')
+    : inputs.massTex === null ? `m = ${inputs.mass}` : `m(${q}) = ${inputs.massTex}`;
+  const where = whereTex(inputs);
   const rows = [
-    `<div>${tex(`H = ${kinetic} + ${inputs.potentialTex}, \\quad ${where}, \\quad m = ${inputs.mass}`, true)}</div>`,
+    `<div>${tex(`H = ${kinetic} + ${inputs.potentialTex}, \\quad ${where}, \\quad ${massTex}`, true)}</div>`,
     inputs.trialTex !== null
-      ? `<div>${tex(`${inputs.space === 'radial' || inputs.space === 'plane' ? 'R' : '\\psi'}(${q}) = ${inputs.trialTex}`, true)}</div>`
-      : `<div>Basis (linear variational method, ${result.states.length} level${result.states.length === 1 ? '' : 's'} reported):${tex(`${inputs.space === 'radial' || inputs.space === 'plane' ? 'R' : '\\psi'}(${q}) = \\sum_i c_i \\phi_i(${q})`, true)}<ol start="0" class="gw-basis">${(inputs.basisTex ?? []).map((b) => `<li>${tex(`\\phi = ${b}`)}</li>`).join('')}</ol></div>`,
+      ? `<div>${tex(`${stateTex(inputs)} = ${inputs.trialTex}`, true)}</div>`
+      : `<div>Basis (linear variational method, ${result.states.length} level${result.states.length === 1 ? '' : 's'} reported):${tex(`${stateTex(inputs)} = \\sum_i c_i \\phi_i(${inputs.coordinates.map(coordinateTex).join(', ')})`, true)}<ol start="0" class="gw-basis">${(inputs.basisTex ?? []).map((b) => `<li>${tex(`\\phi = ${b}`)}</li>`).join('')}</ol></div>`,
   ];
   // Units stay outside the math: they are written as mathjs spells them (nm^-1), not as TeX.
   const unitOf = (name: string) => (result.parameters[name]?.unit ? ` ${escapeHtml(result.parameters[name].unit!)}` : '');
@@ -76,6 +71,57 @@ function renderInputs(result: BlockResult): string {
   if (ranges) rows.push(`<p>Varied: ${ranges}</p>`);
   if (constants) rows.push(`<p>Constants: ${constants}</p>`);
   return `<div class="gw-inputs">${rows.join('\n')}</div>`;
+}
+
+/** The kinetic-energy operator of the block's space (radial, plane and axial with their angular parts). */
+function constantMassKinetic(inputs: BlockInputs): string {
+  const l = inputs.angularMomentum;
+  const space = inputs.space;
+  if (space === 'radial') return `-\\frac{\\hbar^2}{2m}\\frac{1}{r^2}\\frac{d}{dr}r^2\\frac{d}{dr}${l ? `+\\frac{${l * (l + 1)}\\hbar^2}{2m r^2}` : ''}`;
+  if (space === 'plane') return `-\\frac{\\hbar^2}{2m}\\frac{1}{r}\\frac{d}{dr}r\\frac{d}{dr}${l ? `+\\frac{${l * l}\\hbar^2}{2m r^2}` : ''}`;
+  if (space === 'axial') return `-\\frac{\\hbar^2}{2m}\\left(\\frac{1}{\\rho}\\frac{\\partial}{\\partial\\rho}\\rho\\frac{\\partial}{\\partial\\rho}+\\frac{\\partial^2}{\\partial z^2}\\right)${l ? `+\\frac{${l * l}\\hbar^2}{2m\\rho^2}` : ''}`;
+  if (typeof space === 'object') {
+    return inputs.coordinates
+      .map((c) => `-\\frac{\\hbar^2}{2m${inputs.masses ? `_{${coordinateTex(c)}}` : ''}}\\frac{\\partial^2}{\\partial ${coordinateTex(c)}^2}`)
+      .join('');
+  }
+  return `-\\frac{\\hbar^2}{2m}\\frac{d^2}{d${inputs.coordinate}^2}`;
+}
+
+/** A coordinate name as TeX: rho as the Greek letter, x1 as x_1. */
+function coordinateTex(name: string): string {
+  if (name === 'rho') return '\\rho';
+  const m = /^([A-Za-z]+)(\d+)$/.exec(name);
+  return m ? `${m[1]}_{${m[2]}}` : name;
+}
+
+/** The state the trial stands for: the radial factor R on radial and plane, psi of every coordinate otherwise. */
+function stateTex(inputs: BlockInputs): string {
+  const f = inputs.space === 'radial' || inputs.space === 'plane' ? 'R' : '\\psi';
+  return `${f}(${inputs.coordinates.map(coordinateTex).join(', ')})`;
+}
+
+/** Where the coordinates range. */
+function whereTex(inputs: BlockInputs): string {
+  const space = inputs.space;
+  const q = inputs.coordinate;
+  if (inputs.box) return `${q} \\in [${inputs.box[0]}, ${inputs.box[1]}]`;
+  if (space === 'axial') return '\\rho \\ge 0,\\ z \\in \\mathbb{R}';
+  if (typeof space === 'object') {
+    return Object.entries(space)
+      .map(([c, range]) => `${coordinateTex(c)} ${Array.isArray(range) ? `\\in [${range[0]}, ${range[1]}]` : range === 'line' ? '\\in \\mathbb{R}' : '\\ge 0'}`)
+      .join(',\\ ');
+  }
+  return space === 'line' ? `${q} \\in \\mathbb{R}` : `${q} \\ge 0`;
+}
+
+/** The BenDaniel–Duke kinetic operator of a position-dependent mass. */
+function profileKinetic(inputs: BlockInputs): string {
+  const l = inputs.angularMomentum;
+  const q = inputs.coordinate;
+  return inputs.space === 'radial'
+    ? `-\\frac{\\hbar^2}{2}\\frac{1}{r^2}\\frac{d}{dr}\\frac{r^2}{m(r)}\\frac{d}{dr}${l ? `+\\frac{${l * (l + 1)}\\hbar^2}{2m(r) r^2}` : ''}`
+    : `-\\frac{\\hbar^2}{2}\\frac{d}{d${q}}\\frac{1}{m(${q})}\\frac{d}{d${q}}`;
 }
 
 function renderResults(result: BlockResult): string {
@@ -100,7 +146,7 @@ function renderResults(result: BlockResult): string {
       rows.push(row(`level ${tex(`E_{${k}}`)} (upper bound)`, `${formatNumber(state.energy)}${error}`));
     });
   }
-  if (result.basis) rows.push(row('overlap matrix', `${result.basis.functions} functions, ${result.basis.kept} kept; condition number ${formatNumber(result.basis.conditionNumber, 3)}`));
+  if (result.basis) rows.push(row('overlap matrix', `${result.basis.functions} functions, ${result.basis.kept} kept; ${escapeHtml(result.basis.conditioning)}`));
   if (result.errors.vsGrid !== null) rows.push(row('relative error against the grid', formatNumber(result.errors.vsGrid, 3)));
   if (result.errors.vsPublished !== null) rows.push(row('relative error against the published value', formatNumber(result.errors.vsPublished, 3)));
   if (result.overlap !== null) rows.push(row('overlap with the grid ground state', formatNumber(result.overlap, 8)));

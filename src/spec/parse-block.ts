@@ -1,8 +1,9 @@
 import { isScalar, LineCounter, parseDocument, type Document } from 'yaml';
 import type { ZodIssue } from 'zod';
-import { blockSchema, RESERVED_NAMES, type QuantityText, type RawBlock } from './block-schema.ts';
+import { blockSchema, knownFields, RESERVED_NAMES, type QuantityText, type RawBlock } from './block-schema.ts';
 import type { FencedBlock } from './find-blocks.ts';
 import { coordinatesOf, spaceLabel, type BlockEntry, type BlockSpec, type Claimed, type SpecProblem } from './types.ts';
+import { didYouMean } from './nearest-name.ts';
 import { writtenPrecision } from './written-precision.ts';
 import { locateYamlError } from './yaml-errors.ts';
 import { convertQuantityBlock, type QuantityBlockSource, type QuantitySource } from '../units/quantity-block.ts';
@@ -53,10 +54,14 @@ export function parseBlock(file: string, fenced: FencedBlock, index: number): Bl
   const parsed = blockSchema.safeParse(data);
   if (!parsed.success) {
     return invalid(
-      parsed.error.issues.flatMap((issue) =>
-        // An unknown key is reported on its own line, under its own name.
-        issue.code === 'unrecognized_keys' ? issue.keys.map((key) => problem([...issue.path, key], `unknown field ${key}`)) : [problem(issue.path, describeIssue(issue))],
-      ),
+      parsed.error.issues.flatMap((issue) => {
+        // An unknown key is reported on its own line, under its own name; in a map that may take several forms
+        // (a varied parameter's range) a misspelt key also explains the field it leaves missing.
+        const unknown = issue.code === 'invalid_union' ? issue.unionErrors.flatMap((e) => e.issues).find((i) => i.code === 'unrecognized_keys') : issue;
+        return unknown?.code === 'unrecognized_keys'
+          ? unknown.keys.map((key) => problem([...unknown.path, key], `unknown field ${key}${didYouMean(key, knownFields(unknown.path))}`))
+          : [problem(issue.path, describeIssue(issue))];
+      }),
     );
   }
   const raw = parsed.data;
@@ -110,7 +115,8 @@ function quantityFields(raw: RawBlock): Array<[Path, number | string]> {
 
 /** A block whose numeric fields all hold plain numbers (atomic units; quantityFields has checked them). */
 type Numeric<T> = T extends QuantityText ? never : T extends object ? { [K in keyof T]: Numeric<T[K]> } : T;
-type AtomicBlock = Numeric<RawBlock>;
+// The mass may be text in atomic units too: an expression of the coordinate.
+type AtomicBlock = Omit<Numeric<RawBlock>, 'mass'> & Pick<RawBlock, 'mass'>;
 
 /** The quantity-mode block with every number kept as its written text and line, for the units layer to read. */
 function quantitySource(raw: RawBlock & { units: Record<string, string> }, line: number, doc: Document, lineOf: (path: Path) => number): QuantityBlockSource {
@@ -167,8 +173,12 @@ function meaningProblems(raw: RawBlock): Array<[(string | number)[], string]> {
   const found: Array<[(string | number)[], string]> = [];
   const quantityMode = isQuantityMode(raw);
   if (!quantityMode) {
+    const coordinate = coordinatesOf(raw.space ?? 'line')[0];
     for (const [path, value] of quantityFields(raw)) {
-      if (typeof value === 'string') found.push([path, `must be a number in atomic units; ${JSON.stringify(value)} is text (a quantity with a unit needs quantity mode: units: { length: nm, energy: meV })`]);
+      // Text under mass that names the coordinate is a position-dependent mass, read by compileBlock.
+      if (typeof value !== 'string' || (path[0] === 'mass' && namesCoordinate(value, coordinate))) continue;
+      const alternative = path[0] === 'mass' ? ` (or an expression of the coordinate ${coordinate}, for a mass that depends on it)` : '';
+      found.push([path, `must be a number in atomic units${alternative}; ${JSON.stringify(value)} is text (a quantity with a unit needs quantity mode: units: { length: nm, energy: meV })`]);
     }
   }
   if (raw.trial === undefined && raw.basis === undefined) found.push([['trial'], 'the block needs a trial function (trial) or a basis (basis)']);
@@ -231,6 +241,9 @@ function spaceProblems(raw: RawBlock, quantityMode: boolean): Array<[Path, strin
       if (coordinates.includes(name) && !(RESERVED_NAMES as readonly string[]).includes(name)) found.push([[group, name], `${name} is a coordinate of this space; choose another name`]);
     }
   }
+  if (typeof raw.mass === 'string' && (typeof space === 'object' || space === 'axial')) {
+    found.push([['mass'], 'a mass that depends on the coordinates is available on spaces of one coordinate only; give a number (or a map of numbers per coordinate on a product space)']);
+  }
   if (typeof raw.mass === 'object') {
     if (typeof space !== 'object') found.push([['mass'], `a mass per coordinate applies to a product space (a map of coordinates), not ${space}`]);
     else {
@@ -240,6 +253,11 @@ function spaceProblems(raw: RawBlock, quantityMode: boolean): Array<[Path, strin
     if (quantityMode) found.push([['mass'], 'a mass per coordinate is not yet read in quantity mode: write the block in atomic units']);
   }
   return found;
+}
+
+/** Whether the text holds the coordinate as a name of its own (not inside exp or max). */
+function namesCoordinate(text: string, coordinate: string): boolean {
+  return new RegExp(`(^|[^A-Za-z0-9_])${coordinate}([^A-Za-z0-9_]|$)`).test(text);
 }
 
 function toSpec(raw: AtomicBlock, line: number, doc: Document, lineOf: (path: (string | number)[]) => number): BlockSpec {
@@ -265,8 +283,8 @@ function toSpec(raw: AtomicBlock, line: number, doc: Document, lineOf: (path: (s
     space: raw.space ?? 'line',
     box: raw.box ?? null,
     angularMomentum: raw['angular-momentum'] ?? 0,
-    mass: typeof raw.mass === 'number' ? raw.mass : 1,
-    masses: typeof raw.mass === 'object' ? raw.mass : null,
+    mass: typeof raw.mass === 'string' ? { text: raw.mass, line: lineOf(['mass']) } : typeof raw.mass === 'object' ? 1 : (raw.mass ?? 1),
+    masses: typeof raw.mass === 'object' ? (raw.mass as Record<string, number>) : null,
     constants: raw.constants ?? {},
     ...expressions(raw, lineOf),
     varied,

@@ -78,8 +78,12 @@ export interface BlockSpec {
   space: Space;
   box: [number, number] | null;
   angularMomentum: number;
-  /** The particle mass; with a mass per coordinate (product spaces), 1 and `masses` says each. */
-  mass: number;
+  /**
+   * The mass in electron masses: a number, or an expression of the coordinate (in bohr) for a position-dependent
+   * mass (heterostructures), compiled by compileBlock; in quantity mode its units are bound in `constants`. With a
+   * mass per coordinate (product spaces) it is 1 and `masses` gives each.
+   */
+  mass: number | SourceText;
   masses: Record<string, number> | null;
   constants: Record<string, number>;
   potential: SourceText;

@@ -1,3 +1,4 @@
+import type { MassProfile } from '../problem.ts';
 import type { VectorIntegrand } from '../quadrature.ts';
 import type { CoordinateSpace, TrialFunctions } from './space.ts';
 
@@ -7,7 +8,16 @@ export const flatCoordinate: Pick<CoordinateSpace, 'coordinate' | 'weight' | 'en
   weight: () => 1,
   centrifugal: () => 0,
   gridFactor: () => 1,
-  energyIntegrand(trial: TrialFunctions, potential: (x: number) => number): VectorIntegrand {
+  energyIntegrand(trial: TrialFunctions, potential: (x: number) => number, profile: MassProfile | null): VectorIntegrand {
+    if (profile) {
+      return (x, out) => {
+        const psi = trial.value(x);
+        const dpsi = trial.d1(x);
+        out[0] = psi * psi;
+        out[1] = (dpsi * dpsi) / profile.value(x);
+        out[2] = psi === 0 ? 0 : potential(x) * psi * psi;
+      };
+    }
     return (x, out) => {
       const psi = trial.value(x);
       const dpsi = trial.d1(x);
@@ -17,7 +27,19 @@ export const flatCoordinate: Pick<CoordinateSpace, 'coordinate' | 'weight' | 'en
       out[2] = psi === 0 ? 0 : potential(x) * psi * psi;
     };
   },
-  varianceIntegrand(trial: TrialFunctions, potential: (x: number) => number, mass: number, energy: number): VectorIntegrand {
+  varianceIntegrand(trial: TrialFunctions, potential: (x: number) => number, mass: number, energy: number, profile: MassProfile | null): VectorIntegrand {
+    if (profile) {
+      return (x, out) => {
+        const psi = trial.value(x);
+        if (psi === 0) {
+          out[0] = 0;
+          return;
+        }
+        const m = profile.value(x);
+        const hPsi = -(trial.d2(x) / m - (profile.d1(x) * trial.d1(x)) / (m * m)) / 2 + (potential(x) - energy) * psi;
+        out[0] = hPsi * hPsi;
+      };
+    }
     return (x, out) => {
       const psi = trial.value(x);
       if (psi === 0) {

@@ -1,3 +1,4 @@
+import type { MassProfile } from '../problem.ts';
 import type { VectorIntegrand } from '../quadrature.ts';
 import type { CoordinateSpace, TrialFunctions } from './space.ts';
 
@@ -25,7 +26,17 @@ export function radialFactor(form: RadialForm): Pick<CoordinateSpace, 'coordinat
     coordinate: 'r',
     weight,
     centrifugal,
-    energyIntegrand(trial: TrialFunctions, potential: (r: number) => number): VectorIntegrand {
+    energyIntegrand(trial: TrialFunctions, potential: (r: number) => number, profile: MassProfile | null): VectorIntegrand {
+      if (profile) {
+        return (r, out) => {
+          const R = trial.value(r);
+          const dR = trial.d1(r);
+          const w = weight(r);
+          out[0] = w * R * R;
+          out[1] = (w * dR * dR + centrifugal(r) * R * R) / profile.value(r);
+          out[2] = R === 0 ? 0 : w * potential(r) * R * R;
+        };
+      }
       return (r, out) => {
         const R = trial.value(r);
         const dR = trial.d1(r);
@@ -35,7 +46,21 @@ export function radialFactor(form: RadialForm): Pick<CoordinateSpace, 'coordinat
         out[2] = R === 0 ? 0 : w * potential(r) * R * R;
       };
     },
-    varianceIntegrand(trial: TrialFunctions, potential: (r: number) => number, mass: number, energy: number): VectorIntegrand {
+    varianceIntegrand(trial: TrialFunctions, potential: (r: number) => number, mass: number, energy: number, profile: MassProfile | null): VectorIntegrand {
+      if (profile) {
+        return (r, out) => {
+          const R = trial.value(r);
+          if (R === 0) {
+            out[0] = 0;
+            return;
+          }
+          const m = profile.value(r);
+          const d1 = trial.d1(r);
+          const laplacian = trial.d2(r) + (friction * d1) / r;
+          const hR = -(laplacian / m - (profile.d1(r) * d1) / (m * m)) / 2 + (angular / (2 * m * r * r) + potential(r) - energy) * R;
+          out[0] = weight(r) * hR * hR;
+        };
+      }
       return (r, out) => {
         const R = trial.value(r);
         if (R === 0) {

@@ -1,5 +1,5 @@
 import type { GridLevels } from '../grid-levels.ts';
-import type { TrialFamily } from '../problem.ts';
+import type { MassProfile, TrialFamily } from '../problem.ts';
 import type { VectorIntegrand } from '../quadrature.ts';
 
 /** The coordinate range of a space of one coordinate and its hard walls. */
@@ -13,6 +13,8 @@ export interface Domain {
 /** What the grid reference of a space needs from a block, besides the space itself. */
 export interface GridRequest {
   mass: number;
+  /** A mass that depends on the coordinate (BenDaniel–Duke), or null. */
+  massProfile: MassProfile | null;
   potential: (x: number) => number;
   breakpoints: number[];
   hint: { center: number; width: number };
@@ -35,11 +37,15 @@ export interface CoordinateSpace extends Domain {
   weight(x: number): number;
   /**
    * The three integrands of the energy at one parameter point: |psi|^2, the kinetic form 2m T (gradient form, no
-   * second derivative) and V |psi|^2, each times the volume element.
+   * second derivative; with a mass profile m(x) the form 2 T with 1/m(x) inside, BenDaniel & Duke, Phys. Rev. 152, 683
+   * (1966)) and V |psi|^2, each times the volume element.
    */
-  energyIntegrand(trial: TrialFunctions, potential: (x: number) => number): VectorIntegrand;
-  /** |(H - E) psi|^2 times the volume element, H psi from the trial's symbolic second derivative. */
-  varianceIntegrand(trial: TrialFunctions, potential: (x: number) => number, mass: number, energy: number): VectorIntegrand;
+  energyIntegrand(trial: TrialFunctions, potential: (x: number) => number, profile: MassProfile | null): VectorIntegrand;
+  /**
+   * |(H - E) psi|^2 times the volume element, H psi from the trial's symbolic second derivative (with a mass profile,
+   * the BenDaniel–Duke operator -(1/2) div(grad psi / m)).
+   */
+  varianceIntegrand(trial: TrialFunctions, potential: (x: number) => number, mass: number, energy: number, profile: MassProfile | null): VectorIntegrand;
   /**
    * The kinetic integrand of a pair of basis functions, 2m times: weight phi_i' phi_j' + centrifugal(x) phi_i phi_j;
    * centrifugal is the angular part of the kinetic energy times the weight (0 without one).
