@@ -90,6 +90,8 @@ interface Plan {
   layouts: AxisLayout[];
   /** Core element size of each axis. */
   h: number[];
+  /** Where the ground state is centred, for the 1-D cuts of V that the preconditioner uses. */
+  center: number[];
 }
 
 interface Solution {
@@ -139,9 +141,9 @@ function initialPlan(problem: ProductGridProblem): Plan {
     const [lo, hi] = fixedEnds(axis);
     const center = axis.hint?.center ?? (lo !== null && hi !== null ? 0.5 * (lo + hi) : lo !== null ? lo : mean(axis.breakpoints));
     const width = axis.hint?.width ?? (lo !== null && hi !== null ? 0.25 * (hi - lo) : 1);
-    return layoutFor(axis, center, width);
+    return { ...layoutFor(axis, center, width), center: lo !== null && hi === null && center <= lo ? lo + width : center };
   });
-  return { layouts: made.map((m) => m.layout), h: made.map((m) => m.h) };
+  return { layouts: made.map((m) => m.layout), h: made.map((m) => m.h), center: made.map((m) => m.center) };
 }
 
 function mean(values: number[]): number {
@@ -149,7 +151,7 @@ function mean(values: number[]): number {
 }
 
 function grownPlan(plan: Plan): Plan {
-  return { h: plan.h, layouts: plan.layouts.map((l) => ({ ...l, tailLo: l.tailLo + tailStep, tailHi: l.tailHi + tailStep })) };
+  return { h: plan.h, center: plan.center, layouts: plan.layouts.map((l) => ({ ...l, tailLo: l.tailLo + tailStep, tailHi: l.tailHi + tailStep })) };
 }
 
 function productWeights(axes: AxisDvr[]): Float64Array {
@@ -188,6 +190,27 @@ function gridPotential(ctx: Context, axes: AxisDvr[], size: number): Outcome<Flo
   return { ok: true, value: values };
 }
 
+/**
+ * U_k(x) = max(0, V(c with coordinate k set to x) - V(c)) along each axis through the state's centre c: a separable,
+ * non-negative stand-in for V in the preconditioner; 0 where V(c) is not finite.
+ */
+function potentialCuts(ctx: Context, axes: AxisDvr[], center: number[]): Float64Array[] {
+  const point = Float64Array.from(center);
+  const atCenter = ctx.problem.potential(point);
+  return axes.map((axis, a) => {
+    const cut = new Float64Array(axis.size);
+    if (!Number.isFinite(atCenter)) return cut;
+    for (let i = 0; i < axis.size; i++) {
+      point.set(center);
+      point[a] = axis.nodes[i];
+      const v = ctx.problem.potential(point) - atCenter;
+      cut[i] = v > 0 && Number.isFinite(v) ? v : 0;
+    }
+    ctx.counters.evaluations += axis.size;
+    return cut;
+  });
+}
+
 function dot(a: Float64Array, b: Float64Array): number {
   let s = 0;
   for (let i = 0; i < a.length; i++) s += a[i] * b[i];
@@ -221,7 +244,7 @@ function solve(ctx: Context, plan: Plan, resolution: number, previous: Solution 
   if (size > ctx.maxPoints) return { ok: false, tooLarge: true, message: `the next grid needs ${size} points, more than maxPoints = ${ctx.maxPoints}` };
   const potential = gridPotential(ctx, axes, size);
   if (!potential.ok) return potential;
-  const op = productOperator(axes, potential.value);
+  const op = productOperator(axes, potential.value, potentialCuts(ctx, axes, plan.center));
   const weights = productWeights(axes);
   const start = previous
     ? previous.states.map((psi) => {
@@ -304,9 +327,9 @@ function replan(ctx: Context, solution: Solution): Plan {
     const spread = Math.sqrt(Math.max(second - first * first, 0));
     const [lo, hi] = fixedEnds(axis);
     const width = lo !== null && hi !== null ? Math.min(spread, 0.25 * (hi - lo)) : spread;
-    return layoutFor(axis, lo !== null && hi === null ? lo : first, width > 0 ? width : 1);
+    return { ...layoutFor(axis, lo !== null && hi === null ? lo : first, width > 0 ? width : 1), center: first };
   });
-  return { layouts: made.map((m) => m.layout), h: made.map((m) => m.h) };
+  return { layouts: made.map((m) => m.layout), h: made.map((m) => m.h), center: made.map((m) => m.center) };
 }
 
 /**

@@ -1,7 +1,8 @@
 /**
  * The product-grid Hamiltonian H = sum_k 1 ⊗ .. ⊗ T_k ⊗ .. ⊗ 1 + diag(V), applied matrix-free on a row-major grid
  * (last axis fastest), and the fast-diagonalisation preconditioner (T + s)^-1 (Lynch, Rice & Thomas, Numer. Math. 6,
- * 185 (1964)): each 1-D T_k = Q_k diag(lambda_k) Q_k^T, so the inverse is a product of 1-D transforms.
+ * 185 (1964)): each 1-D T_k + U_k = Q_k diag(lambda_k) Q_k^T, so the inverse is a product of 1-D transforms. U_k
+ * is a non-negative 1-D cut of V (exact for a separable V), so confining potentials are preconditioned too.
  */
 import { jacobiEigen } from '../generalized-eigen.ts';
 import { denseAxisOperator, type AxisDvr } from './axis-dvr.ts';
@@ -16,7 +17,7 @@ export interface ProductOperator {
   apply(x: Float64Array, out: Float64Array): void;
   /** out = T x, the kinetic part alone. */
   applyKinetic(x: Float64Array, out: Float64Array): void;
-  /** out = (T + shift)^-1 r, for a positive shift. */
+  /** out = (T + U + shift)^-1 r, for a positive shift. */
   precondition(r: Float64Array, out: Float64Array, shift: number): void;
 }
 
@@ -85,10 +86,15 @@ function kineticSpectrum(spectra: AxisSpectrum[], shape: number[], size: number)
   return sum;
 }
 
-export function productOperator(axes: AxisDvr[], potential: Float64Array): ProductOperator {
+/** `cuts[k]` holds U_k at the nodes of axis k (non-negative), added to the 1-D operator of the preconditioner only. */
+export function productOperator(axes: AxisDvr[], potential: Float64Array, cuts: Float64Array[]): ProductOperator {
   const shape = axes.map((a) => a.size);
   const size = potential.length;
-  const spectra: AxisSpectrum[] = axes.map((axis) => jacobiEigen(denseAxisOperator(axis), axis.size));
+  const spectra: AxisSpectrum[] = axes.map((axis, a) => {
+    const dense = denseAxisOperator(axis);
+    for (let i = 0; i < axis.size; i++) dense[i * axis.size + i] += cuts[a][i];
+    return jacobiEigen(dense, axis.size);
+  });
   const lambda = kineticSpectrum(spectra, shape, size);
   const work = [new Float64Array(size), new Float64Array(size)];
   const applyKinetic = (x: Float64Array, out: Float64Array): void => {
