@@ -161,7 +161,7 @@ function counted<T extends { evaluations: number }>(result: T, counts: EngineRes
 /** Square-integrable, finite energy integrals, and zero at every hard wall. */
 function trialChecks(problem: VariationalProblem, domain: Domain, at: Expectation, where: string): GradedCheck[] {
   // A NaN or an overflow met by the quadrature is traced to the input that produced it.
-  const nonFinite = at.failure === 'non-finite' ? findNonFiniteFactor(problem.potential, problem.trial, domain) : null;
+  const nonFinite = at.failure === 'non-finite' ? findNonFiniteFactor(problem.potential, problem.trial, domain, at.probe) : null;
   const checks = [
     nonFinite
       ? gradedCheck('finite-integrands', false, `at ${where}: ${nonFinite.detail}`, 'invalid', nonFinite.culprit === 'potential' ? 'potential' : undefined)

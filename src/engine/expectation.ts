@@ -2,7 +2,7 @@ import { findBreakpoints } from './breakpoints.ts';
 import { splitPoints, type Domain } from './domain.ts';
 import type { VariationalProblem } from './problem.ts';
 import { integrateVector, type IntegrationResult, type Partition } from './quadrature.ts';
-import { probeTrial, type TrialProbe } from './trial-probe.ts';
+import { negligibleAt, probeTrial, type TrialProbe } from './trial-probe.ts';
 
 /** <H> of the trial at one parameter point, with the pieces it is made of and their error. */
 export interface Expectation {
@@ -47,6 +47,7 @@ export function placedExpectation(problem: VariationalProblem, domain: Domain, p
   const integrand = domain.radial
     ? (r: number, out: Float64Array) => {
         const R = trial.value(r);
+        if (negligibleAt(probe, true, r, R)) return out.fill(0);
         const dR = trial.d1(r);
         const w = r * r;
         out[0] = w * R * R;
@@ -55,6 +56,7 @@ export function placedExpectation(problem: VariationalProblem, domain: Domain, p
       }
     : (x: number, out: Float64Array) => {
         const psi = trial.value(x);
+        if (negligibleAt(probe, false, x, psi)) return out.fill(0);
         const dpsi = trial.d1(x);
         out[0] = psi * psi;
         out[1] = dpsi * dpsi;

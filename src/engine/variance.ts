@@ -2,6 +2,7 @@ import type { Domain } from './domain.ts';
 import type { Expectation } from './expectation.ts';
 import type { VariationalProblem } from './problem.ts';
 import { integrateVector } from './quadrature.ts';
+import { negligibleAt } from './trial-probe.ts';
 
 export interface VarianceResult {
   /** <H^2> - <H>^2, or null when it is infinite or could not be computed (see note). */
@@ -38,7 +39,7 @@ export function energyVariance(problem: VariationalProblem, domain: Domain, at: 
   const integrand = domain.radial
     ? (r: number, out: Float64Array) => {
         const R = trial.value(r);
-        if (R === 0) {
+        if (negligibleAt(at.probe, true, r, R)) {
           out[0] = 0;
           return;
         }
@@ -47,7 +48,7 @@ export function energyVariance(problem: VariationalProblem, domain: Domain, at: 
       }
     : (x: number, out: Float64Array) => {
         const psi = trial.value(x);
-        if (psi === 0) {
+        if (negligibleAt(at.probe, false, x, psi)) {
           out[0] = 0;
           return;
         }
