@@ -11,7 +11,7 @@ import type { BasisProblem } from './problem.ts';
 import { gradedCheck, statusOf, type GradedCheck } from './status.ts';
 import { COMPARISON_FLOOR, ENERGY_RELATIVE_ERROR_LIMIT } from './tolerances.ts';
 import { probeTrial } from './trial-probe.ts';
-import { virialRatio } from './virial.ts';
+import { virialReport } from './virial.ts';
 
 /**
  * Evaluates a block on the linear variational method: the lowest levels of H in the span of the basis (optimising
@@ -139,7 +139,7 @@ export function evaluateBasisProblem(problem: BasisProblem): EngineResult {
     gridError,
     bounds: { upper: energy, lower: null, weinstein: null, nextLevel: levels[1]?.energy ?? null },
     overlap,
-    virial: virialRatio(problem.potential, domain.lo === -Infinity, ground.kinetic, ground.potential),
+    ...virialReport(problem.potential, domain.walls, domain.lo === -Infinity, ground.kinetic, ground.potential),
     optimiser,
     checks,
     counts,

@@ -13,7 +13,7 @@ import type { VariationalProblem } from './problem.ts';
 import { findNonFiniteFactor, probeTrial } from './trial-probe.ts';
 import { gradedCheck, statusOf, type GradedCheck, type Status } from './status.ts';
 import { energyVariance, type VarianceResult } from './variance.ts';
-import { virialRatio, type Virial } from './virial.ts';
+import { virialReport, type Virial } from './virial.ts';
 
 export interface EngineResult {
   status: Status;
@@ -28,6 +28,8 @@ export interface EngineResult {
   bounds: { upper: number | null; lower: number | null; weinstein: [number, number] | null; nextLevel: number | null };
   overlap: number | null;
   virial: Virial | null;
+  /** Why no virial ratio is given for a power-law potential (hard walls away from the origin); else null. */
+  virialNote: string | null;
   optimiser: MinimizeResult | null;
   checks: GradedCheck[];
   counts: { energyEvaluations: number; trialEvaluations: number };
@@ -137,7 +139,7 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
     gridError,
     bounds: { upper: energy, lower, weinstein: weinsteinInterval(energy, variance.value), nextLevel },
     overlap,
-    virial: virialRatio(problem.potential, domain.lo === -Infinity, optimum.kinetic, optimum.potential),
+    ...virialReport(problem.potential, domain.walls, domain.lo === -Infinity, optimum.kinetic, optimum.potential),
     optimiser,
     checks,
     counts: { ...counts, trialEvaluations: counts.trialEvaluations + variance.evaluations },
@@ -241,6 +243,7 @@ export function invalidResult(checks: GradedCheck[], counts: EngineResult['count
     bounds: { upper: null, lower: null, weinstein: null, nextLevel: null },
     overlap: null,
     virial: null,
+    virialNote: null,
     optimiser: null,
     checks,
     counts,

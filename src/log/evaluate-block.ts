@@ -112,6 +112,7 @@ function toBlockResult(file: string, spec: BlockSpec, inputs: BlockInputs, engin
     bounds: { upper: engine.bounds.upper, lower: engine.bounds.lower, weinstein: engine.bounds.weinstein },
     overlap: engine.overlap,
     virial: engine.virial,
+    virialNote: engine.virialNote,
     claim: spec.claim
       ? { energy: spec.claim.energy?.value ?? null, tolerance: spec.claim.energy?.tolerance ?? null, parameters: spec.claim.parameters }
       : null,

@@ -97,6 +97,7 @@ function renderResults(result: BlockResult): string {
   if (result.errors.vsPublished !== null) rows.push(row('relative error against the published value', formatNumber(result.errors.vsPublished, 3)));
   if (result.overlap !== null) rows.push(row('overlap with the grid ground state', formatNumber(result.overlap, 8)));
   if (result.virial) rows.push(row(`virial ratio ${tex(`2\\langle T\\rangle / (${result.virial.exponent}\\langle V\\rangle)`)}`, formatNumber(result.virial.ratio, 8)));
+  else if (result.virialNote) rows.push(row('virial ratio', escapeHtml(result.virialNote)));
   if (result.claim?.energy !== null && result.claim) rows.push(row('claimed energy', `${formatNumber(result.claim.energy)} ± ${formatNumber(result.claim.tolerance, 3)}`));
   return `<table class="gw-results"><caption>Recomputed values (${escapeHtml(unit)}); model estimates, not a substitute for the group's validated procedures</caption><tbody>${rows.join('')}</tbody></table>`;
 }
