@@ -11,6 +11,7 @@ import type { BasisProblem } from './problem.ts';
 import { gradedCheck, statusOf, type GradedCheck } from './status.ts';
 import { COMPARISON_FLOOR, ENERGY_RELATIVE_ERROR_LIMIT } from './tolerances.ts';
 import { probeTrial } from './trial-probe.ts';
+import { GROUND_LEVEL } from './parity.ts';
 import { virialReport } from './virial.ts';
 
 /**
@@ -146,6 +147,7 @@ export function evaluateBasisProblem(problem: BasisProblem): EngineResult {
     timings,
     plots,
     states: levels.map((level, k) => ({ energy: level.energy, errorEstimate: level.errorEstimate, reference: grid?.levels[k] ?? null })),
+    level: GROUND_LEVEL,
     basis: { functions: functions.length, kept: overlapInfo.kept, dropped: overlapInfo.dropped, conditionNumber: overlapInfo.conditionNumber, warning: solution.warning },
   };
 }

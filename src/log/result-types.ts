@@ -52,6 +52,11 @@ export interface BlockResult {
     threshold: number | null;
     method: 'grid' | 'published' | null;
     published: { energy: number; tolerance: number; source: string } | null;
+    /**
+     * The level `energy` (and the published value) stands for: 0-based among the levels of `symmetry` (parity under
+     * x -> -x), or among all levels when it is null; `excited` is the next level of the same symmetry.
+     */
+    level: { index: number; symmetry: 'even' | 'odd' | null };
   } | null;
   errors: { vsGrid: number | null; vsPublished: number | null };
   bounds: { upper: number | null; lower: number | null; weinstein: [number, number] | null };
