@@ -35,7 +35,7 @@ describe('a trial evaluated only where it has not decayed', () => {
     // The family holds the exact state: its variance is at rounding level.
     expect(result.variance!).toBeLessThan(1e-12);
     expect(relative(result.reference!.energy!, EXACT)).toBeLessThan(1e-8);
-  });
+  }, 60_000);
 
   it('sech(x)^p held at p = 0.618034 is evaluated, not refused for its derivative far out', () => {
     const result = run(`id: sech-fixed\npotential: -0.5*sech(x)^2\ntrial: sech(x)^p\nparameters:\n  p: 0.618034`);
@@ -43,7 +43,7 @@ describe('a trial evaluated only where it has not decayed', () => {
     // p is 1e-7 off lambda, so E is above the exact level by a second-order amount only.
     expect(result.energy!.value).toBeGreaterThanOrEqual(EXACT);
     expect(relative(result.energy!.value, EXACT)).toBeLessThan(1e-8);
-  });
+  }, 60_000);
 
   it.each([
     ['sech(x / w)^p', 'graded-sech'],
@@ -69,5 +69,5 @@ parameters:
     expect(relative(result.parameters.p.value, lambda)).toBeLessThan(1e-6);
     // And against the block's own grid reference, which knows nothing of the trial.
     expect(relative(result.energy!.value, result.reference!.energy!)).toBeLessThan(1e-9);
-  });
+  }, 60_000);
 });

@@ -44,7 +44,7 @@ describe('the level a trial is compared with', () => {
     expect(html).toContain('reference (grid, lowest odd level)');
     expect(html).toContain('next odd level');
     expect(html).toContain('overlap with the grid state of the lowest odd level');
-  });
+  }, 60_000);
 
   it('a Gaussian declared even keeps the ground level 1/2 and takes E1 from the next even level, 5/2', () => {
     const result = run('id: even-osc\nsymmetry: even\npotential: x^2/2\ntrial: exp(-a*x^2)\nparameters:\n  a: { start: 0.3, min: 0.05, max: 5 }');
@@ -53,7 +53,7 @@ describe('the level a trial is compared with', () => {
     expect(relative(result.reference!.energy!, 0.5)).toBeLessThan(1e-9);
     expect(relative(result.reference!.excited!, 2.5)).toBeLessThan(1e-9);
     expect(result.checks.find((c) => c.name === 'symmetry')).toMatchObject({ pass: true });
-  });
+  }, 60_000);
 
   it('level: 1 of the even levels is compared with n = 2, 5/2, and E1 = 9/2; Eckart says nothing above the lowest level', () => {
     // (x^2 - 1/2) exp(-x^2/2) is proportional to H_2(x) exp(-x^2/2): E = 5/2 exactly.
@@ -65,7 +65,7 @@ describe('the level a trial is compared with', () => {
     expect(relative(result.reference!.excited!, 4.5)).toBeLessThan(1e-9);
     expect(result.checks.map((c) => c.name)).not.toContain('eckart-overlap');
     expect(result.overlap!).toBeGreaterThan(1 - 1e-8);
-  });
+  }, 60_000);
 
   it('an odd trial in the box [-1, 1] is compared with the lowest odd box level pi^2/2, not the ground level', () => {
     // psi = x (1 - x^2): <T> = (1/2) int (1 - 3x^2)^2 / int x^2 (1 - x^2)^2 = (1/2)(8/5)/(16/105) = 21/4 (closed form).
@@ -75,21 +75,21 @@ describe('the level a trial is compared with', () => {
     expect(result.reference!.level).toEqual({ index: 0, symmetry: 'odd' });
     expect(relative(result.reference!.energy!, Math.PI ** 2 / 2)).toBeLessThan(1e-9);
     expect(relative(result.reference!.excited!, 2 * Math.PI ** 2)).toBeLessThan(1e-9);
-  });
+  }, 60_000);
 
   it('a trial that is neither even nor odd is compared with the ground level, as before', () => {
     const result = run('id: shifted\npotential: x^2/2\ntrial: exp(-a*(x - 0.1)^2)\nparameters:\n  a: { start: 0.3, min: 0.05, max: 5 }');
     expect(result.reference!.level).toEqual({ index: 0, symmetry: null });
     expect(relative(result.reference!.energy!, 0.5)).toBeLessThan(1e-9);
     expect(relative(result.reference!.excited!, 1.5)).toBeLessThan(1e-9);
-  });
+  }, 60_000);
 
   it('a declared symmetry the trial lacks is invalid, naming the symmetry field and its line', () => {
     const result = run(`id: wrong-parity\nsymmetry: even\n${ODD_TRIAL}`);
     expect(result.status).toBe('invalid');
     expect(result.message).toContain('symmetry: even, but the trial is not even at the start values');
     expect(result.problems).toEqual([expect.objectContaining({ field: 'symmetry', line: 10, block: 'wrong-parity' })]);
-  });
+  }, 60_000);
 
   it('a declared symmetry on a potential that is not even is invalid, naming the field', () => {
     const result = run('id: tilted\nsymmetry: odd\npotential: x^2/2 + 0.1*x\ntrial: x*exp(-a*x^2)\nparameters:\n  a: { start: 0.3, min: 0.05, max: 5 }');
@@ -97,5 +97,5 @@ describe('the level a trial is compared with', () => {
     expect(result.message).toContain('symmetry: odd needs a potential even under x -> -x');
     expect(result.message).toContain('the potential is not even');
     expect(result.problems[0]).toMatchObject({ field: 'symmetry', line: 10 });
-  });
+  }, 60_000);
 });

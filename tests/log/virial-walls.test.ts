@@ -28,7 +28,7 @@ describe('the virial ratio only where the theorem holds', () => {
     const html = renderBlockPanel(result, context);
     expect(html).toContain(WALL_VIRIAL_NOTE);
     expect(html).not.toMatch(/virial ratio.*<td>\d/);
-  });
+  }, 60_000);
 
   it('the half-line, whose only wall is at the origin, keeps its ratio: 1 for x exp(-a x) in V = x', () => {
     // The family is closed under dilation and the wall stays put, so at its optimum 2<T> = 1 <V> (Fock's argument; common practice).
@@ -36,11 +36,11 @@ describe('the virial ratio only where the theorem holds', () => {
     expect(result.virialNote).toBeNull();
     expect(result.virial).toMatchObject({ exponent: 1 });
     expect(result.virial!.ratio).toBeCloseTo(1, 5);
-  });
+  }, 60_000);
 
   it('the open line keeps its ratio: 1 for the Gaussian in x^2/2', () => {
     const result = run('id: osc\npotential: x^2/2\ntrial: exp(-a*x^2)\nparameters:\n  a: { start: 0.3, min: 0.01, max: 10 }');
     expect(result.virialNote).toBeNull();
     expect(result.virial!.ratio).toBeCloseTo(1, 5);
-  });
+  }, 60_000);
 });
