@@ -46,9 +46,10 @@ export function probeTrial(value: (x: number) => number, domain: Domain): TrialP
 }
 
 /**
- * Outside its bulk, a trial whose density has fallen below this fraction of its peak adds less to
- * any energy integral than the quadrature can resolve (1e-40 of the peak per unit length; a tail that
- * is still this large 1e16 scales out decays no slower than 1/x and is caught as not normalisable).
+ * Outside its bulk, a point where the trial's density is below this fraction of its peak is left out
+ * of the integrals: such a tail adds far less than their tolerance (1e-12 relative), while a trial
+ * that is not normalisable (density falling like 1/x or slower) never gets this low within the
+ * quadrature's reach of about 1e16 length scales, so its divergence is still caught.
  */
 const NEGLIGIBLE_DENSITY = 1e-40;
 
@@ -57,7 +58,8 @@ const NEGLIGIBLE_DENSITY = 1e-40;
  * the trial's bulk (farther than `scale` from its centre) and its density is negligible. Far out the
  * trial's derivatives are products of factors that under- and overflow (sech^(p-1) with sech = 0 is
  * Infinity, times sech tanh = 0 is NaN) although the integrands they enter are 0 to every digit;
- * the domain ends, in effect, where the trial has decayed. Nodes of the trial lie inside its bulk.
+ * the domain ends, in effect, where the trial has decayed. A node of the trial (density 0, slope not)
+ * lies inside its bulk and is integrated as before.
  */
 export function negligibleAt(probe: TrialProbe, radial: boolean, x: number, psi: number): boolean {
   if (!(Math.abs(x - probe.center) > probe.scale)) return false;
