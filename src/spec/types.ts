@@ -39,6 +39,10 @@ export interface QuantityMode {
   energy: { unit: string; perHartree: number; definition: string };
   length: { unit: string; perBohr: number };
   parameters: Record<string, { unit: string | null; perAtomic: number }>;
+  /** Declared constants: the unit each is stated in (as written, else coherent SI). */
+  constants: Record<string, { unit: string | null; perAtomic: number }>;
+  /** The unit the trial's norm integral is stated in. */
+  norm: { unit: string | null; perAtomic: number };
   constantsUsed: Array<{ name: string; value: number; unit: string; source: string }>;
   /** Names in `constants` that are mathjs units or constants bound by the conversion, not declared by the author. */
   bound: string[];
