@@ -1,5 +1,6 @@
 import type { Domain } from './domain.ts';
 import type { Expectation } from './expectation.ts';
+import { ATOMIC_DISPLAY } from './format.ts';
 import type { VariationalProblem } from './problem.ts';
 import { integrateVector } from './quadrature.ts';
 
@@ -31,7 +32,7 @@ export function energyVariance(problem: VariationalProblem, domain: Domain, at: 
     const h = 1e-7 * Math.max(scale, Math.abs(x));
     const jump = Math.abs(trial.d1(x + h) - trial.d1(x - h));
     if (jump > CUSP_TOLERANCE * (peakAmplitude / scale)) {
-      return { value: null, errorEstimate: 0, note: `the trial's slope jumps at ${x.toPrecision(6)}, so H psi holds a delta function and the variance is infinite`, evaluations: 2 };
+      return { value: null, errorEstimate: 0, note: `the trial's slope jumps at ${(problem.display ?? ATOMIC_DISPLAY).length(x, 6)}, so H psi holds a delta function and the variance is infinite`, evaluations: 2 };
     }
   }
   const l2 = problem.angularMomentum * (problem.angularMomentum + 1);
