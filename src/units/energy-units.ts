@@ -68,9 +68,10 @@ function sizeEnergyUnit(name: string): EnergyUnitReading {
   const refused = (why: string): EnergyUnitReading => ({ ok: false, message: `${name} ${why}; ${ENERGY_UNIT_HELP}` });
   const alone = readQuantity(`1 ${name}`);
   if (!alone.ok) return refused('is not a unit quantity mode knows');
-  const { tree, physical, dimension } = alone.quantity;
-  // Only units: a constant or an expression has no single size to call a unit.
-  if (writtenUnit(tree, physical) === null || [...physical.values()].some((p) => p.kind !== 'unit')) return refused('is not a single unit');
+  const { tree, physical, dimension, atomic } = alone.quantity;
+  // Only units: a constant, a number (pi meV) or an expression has no single size to call a unit.
+  const unit = writtenUnit(tree, physical);
+  if (unit === null || Math.abs(unit.atomic - atomic) > 1e-12 * Math.abs(atomic) || [...physical.values()].some((p) => p.kind !== 'unit')) return refused('is not a single unit');
   if (dimension === 'any') return refused('has no dimension');
   const relation = RELATIONS.find((r) => sameDimension(r.dimension, dimension));
   if (!relation) return refused(`is a unit of ${dimensionName(dimension)}, not of energy`);
