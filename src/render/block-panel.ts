@@ -65,7 +65,8 @@ function renderInputs(result: BlockResult): string {
       : `<div>Basis (linear variational method, ${result.states.length} level${result.states.length === 1 ? '' : 's'} reported):${tex(`${inputs.space === 'radial' ? 'R' : '\\psi'}(${q}) = \\sum_i c_i \\phi_i(${q})`, true)}<ol start="0" class="gw-basis">${(inputs.basisTex ?? []).map((b) => `<li>${tex(`\\phi = ${b}`)}</li>`).join('')}</ol></div>`,
   ];
   // Units stay outside the math: they are written as mathjs spells them (nm^-1), not as TeX.
-  const unitOf = (name: string) => (result.parameters[name]?.unit ? ` ${escapeHtml(result.parameters[name].unit!)}` : '');
+  // From the block's units rather than the results, so an invalid block's ranges keep theirs too.
+  const unitOf = (name: string) => (result.quantity?.parameters[name]?.unit ? ` ${escapeHtml(result.quantity.parameters[name].unit!)}` : '');
   const ranges = inputs.ranges.map((r) => `${tex(`${r.name} \\in [${formatNumber(r.min, 8)}, ${formatNumber(r.max, 8)}]`)}${unitOf(r.name)}, start ${formatNumber(r.start, 8)}${unitOf(r.name)}`).join('; ');
   const constantUnit = (name: string) => (inputs.constantUnits?.[name] ? ` ${escapeHtml(inputs.constantUnits[name]!)}` : '');
   const constants = Object.entries(inputs.constants).map(([k, v]) => `${tex(`${k} = ${formatNumber(v, 10)}`)}${constantUnit(k)}`).join(', ');
