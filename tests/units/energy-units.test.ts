@@ -135,3 +135,21 @@ describe('round trips: every example unit as the block unit, as a written quanti
     }
   });
 });
+
+describe('lengths as input', () => {
+  it('bohr is a length unit for the block, for a wall and for a constant; nm walls are a0-scaled (NIST CODATA 2018: a0 = 0.0529177210903 nm)', () => {
+    const block = trap('meV', null);
+    const result = convertQuantityBlock('r.md', {
+      ...block,
+      units: { entries: { length: at('bohr', 12), energy: at('hartree', 12) }, line: 12 },
+      box: [at('-20 bohr', 13), at('1.0583544218 nm', 13)],
+      constants: { ...block.constants, w: at('3 bohr', 16) },
+    });
+    if (!result.ok) throw new Error(result.problems.map((p) => p.message).join('; '));
+    expect(result.back.length).toEqual({ unit: 'bohr', perBohr: 1 });
+    expect(result.spec.box![0]).toBe(-20);
+    expect(relative(result.spec.box![1], 20)).toBeLessThan(1e-10);
+    expect(result.spec.constants.w).toBe(3);
+    expect(result.back.constants.w).toEqual({ unit: 'bohr', perAtomic: 1 });
+  });
+});
