@@ -32,8 +32,8 @@ function stated(value: number, scale: Scale, digits?: number): string {
 }
 
 /**
- * A result computed in atomic units, stated in the units of its quantity-mode block. Relative errors,
- * ratios and the optimiser's curvature (in the engine's parameter scale) stay as computed.
+ * A result computed in atomic units, stated in the units of its quantity-mode block. Relative errors
+ * and ratios stay as computed.
  */
 export function inBlockUnits(result: BlockResult, units: QuantityMode): BlockResult {
   const s = scalesOf(units);
@@ -43,6 +43,7 @@ export function inBlockUnits(result: BlockResult, units: QuantityMode): BlockRes
   const maybe = (v: number | null) => (v === null ? null : v * E);
   const parameter = (name: string, v: number) => v * s.parameter(name).perAtomic;
   const { reference, claim, plots, inputs, diagnostics } = result;
+  const varied = Object.keys(result.parameters).filter((name) => result.parameters[name].varied);
   const declared = inputs ? Object.keys(inputs.constants).filter((name) => !units.bound.includes(name)) : [];
   return {
     ...result,
@@ -98,6 +99,11 @@ export function inBlockUnits(result: BlockResult, units: QuantityMode): BlockRes
     },
     diagnostics: diagnostics && {
       ...diagnostics,
+      // d2E / dp_i dp_j: an energy per unit of each of the two parameters (varied ones, in the engine's order).
+      optimiser: diagnostics.optimiser && {
+        ...diagnostics.optimiser,
+        curvature: diagnostics.optimiser.curvature.map((row, i) => row.map((c, j) => (c * E) / (s.parameter(varied[i]).perAtomic * s.parameter(varied[j]).perAtomic))),
+      },
       energyError: diagnostics.energyError === null ? null : diagnostics.energyError * Math.abs(E),
       grid: diagnostics.grid && { ...diagnostics.grid, domain: [diagnostics.grid.domain[0] * L, diagnostics.grid.domain[1] * L] },
     },
