@@ -226,8 +226,11 @@ function checkExpressions(reader: FieldReader, block: QuantityBlockSource, scope
       continue;
     }
     if (field === 'potential' && analysed.dimension !== ANY && !sameDimension(analysed.dimension, ENERGY)) {
-      // A common slip: e is Euler's number here, as in atomic units.
-      const hint = dependsOn(analysed.tree, 'e') ? " (e is Euler's number; the elementary charge is elementaryCharge)" : '';
+      // Common slips: e is Euler's number here, as in atomic units; rydberg in an expression is mathjs's R_inf.
+      const hint = [
+        dependsOn(analysed.tree, 'e') ? "e is Euler's number; the elementary charge is elementaryCharge" : null,
+        dependsOn(analysed.tree, 'rydberg') ? 'rydberg in an expression is the Rydberg constant R_inf, a wavenumber; the Rydberg energy is 0.5 hartree' : null,
+      ].filter((h) => h !== null).map((h) => ` (${h})`).join('');
       reader.complain(field, source.line, `the potential must be an energy, but ${analysed.tree.toString()} is ${describeDimension(analysed.dimension)}${hint}`);
     }
     if (field === 'trial') trialDimension = analysed.dimension;

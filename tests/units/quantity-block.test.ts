@@ -239,6 +239,12 @@ describe('blocks whose dimensions disagree are refused, naming the term and the 
     expect(problem.message).toContain('the elementary charge is elementaryCharge');
   });
 
+  it('rydberg in the potential gets a hint: in an expression it is the constant R_inf, not the energy', () => {
+    const [problem] = problemsOf(oscillator({ potential: at('-1 rydberg * (x / (1 nm))^2', 17) }));
+    expect(problem.field).toBe('potential');
+    expect(problem.message).toMatch(/must be an energy.*the Rydberg energy is 0\.5 hartree/);
+  });
+
   it('reports every problem of a block at once, each in its own field', () => {
     const problems = problemsOf(
       donor({
