@@ -1,14 +1,8 @@
 import { g, type ValueDisplay } from '../engine/format.ts';
-import type { QuantityMode } from '../spec/types.ts';
+import type { QuantityMode, StatedUnit } from '../spec/types.ts';
 import type { BlockResult } from './result-types.ts';
 
-/** A unit of a quantity-mode block and how many of it make one atomic unit; a null unit is a pure number. */
-interface Scale {
-  unit: string | null;
-  perAtomic: number;
-}
-
-const PURE: Scale = { unit: null, perAtomic: 1 };
+const PURE: StatedUnit = { unit: null, perAtomic: 1 };
 
 /**
  * The one place that knows which unit each kind of value of a quantity-mode block is stated in:
@@ -16,18 +10,26 @@ const PURE: Scale = { unit: null, perAtomic: 1 };
  * declared constants in the units they were written in, the norm integral in a power of the length unit.
  * Both the numbers (inBlockUnits) and the words of check details (blockUnitsDisplay) come from here.
  */
-function scalesOf(units: QuantityMode) {
+function scalesOf(units: QuantityMode): BlockScales {
   return {
-    energy: { unit: units.energy.unit, perAtomic: units.energy.perHartree } as Scale,
-    length: { unit: units.length.unit, perAtomic: units.length.perBohr } as Scale,
-    norm: units.norm as Scale,
-    parameter: (name: string): Scale => units.parameters[name] ?? PURE,
-    constant: (name: string): Scale => units.constants[name] ?? PURE,
+    energy: { unit: units.energy.unit, perAtomic: units.energy.perHartree },
+    length: { unit: units.length.unit, perAtomic: units.length.perBohr },
+    norm: units.norm,
+    parameter: (name) => units.parameters[name] ?? PURE,
+    constant: (name) => units.constants[name] ?? PURE,
   };
 }
 
+interface BlockScales {
+  energy: StatedUnit;
+  length: StatedUnit;
+  norm: StatedUnit;
+  parameter(name: string): StatedUnit;
+  constant(name: string): StatedUnit;
+}
+
 /** A value with its unit, as a message states it: "5 nm", "12.9". */
-function stated(value: number, scale: Scale, digits?: number): string {
+function stated(value: number, scale: StatedUnit, digits?: number): string {
   return `${g(value * scale.perAtomic, digits)}${scale.unit ? ` ${scale.unit}` : ''}`;
 }
 

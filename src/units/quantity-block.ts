@@ -1,4 +1,4 @@
-import type { BlockSpec, Claimed, SourceText, Space, SpecProblem } from '../spec/types.ts';
+import type { BlockSpec, Claimed, SourceText, Space, SpecProblem, StatedUnit } from '../spec/types.ts';
 import { dependsOn } from '../expr/differentiate.ts';
 import type { DimensionScope } from './check-dimensions.ts';
 import { ANY, DIMENSIONLESS, ENERGY, LENGTH, MASS, describeDimension, isDimensionless, multiply, power, sameDimension, unify, type Dimension, type DimensionOrAny } from './dimension.ts';
@@ -50,11 +50,6 @@ export interface UnitsBack {
   norm: StatedUnit;
 }
 
-/** A unit to state values of one kind in: value in unit = atomic value * perAtomic; null for a pure number. */
-export interface StatedUnit {
-  unit: string | null;
-  perAtomic: number;
-}
 
 export type QuantityConversion =
   | {
