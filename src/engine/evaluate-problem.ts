@@ -76,7 +76,7 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
   // A step of the mass is a split point and a grid element edge, as a kink of the potential is.
   const potentialBreaks = findBreakpoints(hamiltonianSwitches(problem), domain.lo, domain.hi, startProbe.center, startProbe.scale).points;
   const atStart = counted(placedExpectation(problem, domain, potentialBreaks, startProbe), counts);
-  const startChecks = trialChecks(problem, domain, atStart, 'the start values');
+  const startChecks = trialChecks(problem, domain, atStart, 'the start values', show);
   if (startChecks.some((c) => !c.pass)) return invalidResult(startChecks, counts, started);
 
   let optimiser: MinimizeResult | null = null;
@@ -87,7 +87,7 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
     best = Array.from(optimiser.x);
   }
   const optimum = evaluate(problem, domain, potentialBreaks, best, counts);
-  const optimumChecks = trialChecks(problem, domain, optimum, 'the optimum');
+  const optimumChecks = trialChecks(problem, domain, optimum, 'the optimum', show);
   if (optimumChecks.some((c) => !c.pass)) return invalidResult(optimumChecks, counts, started);
 
   const checks: GradedCheck[] = [...optimumChecks];
@@ -169,16 +169,16 @@ function counted<T extends { evaluations: number }>(result: T, counts: EngineRes
 }
 
 /** Square-integrable, finite energy integrals, and zero at every hard wall. */
-function trialChecks(problem: VariationalProblem, domain: Domain, at: Expectation, where: string): GradedCheck[] {
+function trialChecks(problem: VariationalProblem, domain: Domain, at: Expectation, where: string, show: ValueDisplay): GradedCheck[] {
   // A NaN or an overflow met by the quadrature is traced to the input that produced it.
-  const nonFinite = at.failure === 'non-finite' ? findNonFiniteFactor(problem.potential, problem.trial, domain) : null;
+  const nonFinite = at.failure === 'non-finite' ? findNonFiniteFactor(problem.potential, problem.trial, domain, show) : null;
   const checks = [
     nonFinite
       ? gradedCheck('finite-integrands', false, `at ${where}: ${nonFinite.detail}`, 'invalid', nonFinite.culprit === 'potential' ? 'potential' : undefined)
       : gradedCheck(
           'normalisable',
           at.failure === null,
-          at.failure === null ? `norm integral ${g(at.norm)} at ${where}` : `at ${where}: ${at.failureDetail}`,
+          at.failure === null ? `norm integral ${show.norm(at.norm)} at ${where}` : `at ${where}: ${at.failureDetail}`,
           'invalid',
         ),
   ];
@@ -190,7 +190,7 @@ function trialChecks(problem: VariationalProblem, domain: Domain, at: Expectatio
       gradedCheck(
         'hard-wall',
         Number.isFinite(psi) && ratio <= WALL_TOLERANCE,
-        `trial at the wall ${g(wall)} is ${g(psi, 4)} (${g(ratio, 3)} of its peak; must vanish) at ${where}`,
+        `trial at the wall ${show.length(wall)} is ${g(psi, 4)} (${g(ratio, 3)} of its peak; must vanish) at ${where}`,
         'invalid',
       ),
     );

@@ -3,6 +3,7 @@
  * their vectors of H = p^2/(2m) + V (hbar = 1) by the finite-element discrete variable representation.
  */
 import { lowestEigenpairs, type SymmetricBand } from './banded-eigen.ts';
+import { ATOMIC_DISPLAY, type ValueDisplay } from './format.ts';
 import { gllRule, type GllRule } from './gll.ts';
 
 export type GridSpace = 'line' | 'half-line' | 'radial' | 'box';
@@ -35,6 +36,8 @@ export interface GridProblem {
   levels?: number;
   relTol?: number;
   maxNodes?: number;
+  /** How messages state energies and positions (default: atomic units). */
+  display?: ValueDisplay;
 }
 
 export interface GridLevels {
@@ -115,6 +118,7 @@ interface Context {
   relTol: number;
   maxNodes: number;
   counters: { grids: number; eigenIterations: number; evaluations: number };
+  show: ValueDisplay;
 }
 
 interface Grid {
@@ -320,7 +324,7 @@ function buildGrid(ctx: Context, boundaries: number[], order: number): Outcome<G
   for (let row = 0; row < size; row++) {
     const e = (row + 1) / step;
     const v = Number.isInteger(e) && breaks.has(boundaries[e]) ? breakpointPotential(ctx, boundaries, e) + radialMassStep(ctx, boundaries, e, weights[row]) : ctx.veff(nodes[row]);
-    if (!Number.isFinite(v)) return { ok: false, message: `the potential is not finite at x = ${nodes[row]} (V = ${v})` };
+    if (!Number.isFinite(v)) return { ok: false, message: `the potential is not finite at x = ${ctx.show.length(nodes[row])} (V = ${ctx.show.energy(v)})` };
     for (let k = 0; k < width && row + k < size; k++) upper[row * width + k] /= Math.sqrt(weights[row] * weights[row + k]);
     upper[row * width] += v;
     potential[row] = v;
@@ -449,12 +453,12 @@ function tailEnd(ctx: Context, estimate: StateEstimate, direction: number, depth
   let exponent = 0;
   for (let steps = 0; exponent < depth; steps++) {
     const v = ctx.veff(x);
-    if (Number.isNaN(v)) return { ok: false, message: `the potential is NaN at x = ${x}` };
+    if (Number.isNaN(v)) return { ok: false, message: `the potential is NaN at x = ${ctx.show.length(x)}` };
     if (v === Infinity) return { ok: true, value: x };
     const kappa2 = 2 * ctx.massAt(x) * (v - energy);
     const distance = Math.abs(x - center);
     if (steps > 100000 || distance > 1e9 * width) {
-      return { ok: false, message: `the tail of the level ${energy} does not decay within ${distance} of x = ${center}` };
+      return { ok: false, message: `the tail of the level ${ctx.show.energy(energy)} does not decay within ${ctx.show.length(distance)} of x = ${ctx.show.length(center)}` };
     }
     // Steps follow the local decay length, or grow with the distance where V - E is nearly zero; an attractive
     // singularity (V = -Infinity) is simply stepped over.
@@ -527,7 +531,7 @@ function sizeDomain(ctx: Context, start: [number, number], first: StateEstimate)
     if (sameDomain(domain, next)) break;
     domain = next;
   }
-  return last ? { ok: true, value: last } : { ok: false, message: `no bound level below the continuum threshold ${ctx.threshold} was found` };
+  return last ? { ok: true, value: last } : { ok: false, message: `no bound level below the continuum threshold ${ctx.show.energy(ctx.threshold)} was found` };
 }
 
 function nextResolution(resolution: Resolution): Resolution {
@@ -597,7 +601,7 @@ function confirmDomain(ctx: Context, refined: Refined, estimate: StateEstimate, 
   const errorEstimate = changes
     ? changes.map((d, i) => Math.max(d, refined.errorEstimate[i]))
     : solved.value.bound.map(() => Infinity);
-  const message = settled ? null : `the levels still move when the domain is extended to [${solved.value.domain.join(', ')}]`;
+  const message = settled ? null : `the levels still move when the domain is extended to [${solved.value.domain.map((x) => ctx.show.length(x)).join(', ')}]`;
   return { ok: true, value: { refined: { solution: solved.value, errorEstimate, converged: settled, message }, retry: !settled } };
 }
 
@@ -629,7 +633,7 @@ function report(ctx: Context, refined: Refined): GridLevels {
   const found = solution.bound.length;
   const shortfall =
     ctx.wantedExplicitly && found < ctx.wanted
-      ? `only ${found} bound level${found === 1 ? '' : 's'} below the continuum threshold ${ctx.threshold}, ${ctx.wanted} asked for`
+      ? `only ${found} bound level${found === 1 ? '' : 's'} below the continuum threshold ${ctx.show.energy(ctx.threshold)}, ${ctx.wanted} asked for`
       : null;
   const message = [shortfall, refined.message, eigenNote].filter((m) => m !== null).join('; ');
   return {
@@ -698,6 +702,7 @@ export function gridLevels(problem: GridProblem): GridLevels {
     relTol: problem.relTol ?? GRID_DEFAULTS.relTol,
     maxNodes: problem.maxNodes ?? GRID_DEFAULTS.maxNodes,
     counters,
+    show: problem.display ?? ATOMIC_DISPLAY,
   };
   const invalid = validate(problem);
   if (invalid) return failure(base, invalid);

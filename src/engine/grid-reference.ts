@@ -23,6 +23,7 @@ export function gridReference(problem: ProblemBase, breakpoints: number[], hint:
       breakpoints,
       hint,
       levels,
+      display: problem.display,
     });
     return { grid, gridError: null, referenceMs: performance.now() - started };
   } catch (error) {

@@ -54,8 +54,10 @@ function renderInputs(result: BlockResult): string {
   const inputs = result.inputs!;
   const q = inputs.coordinate;
   const kinetic = inputs.massTex === null ? constantMassKinetic(inputs) : profileKinetic(inputs);
-  const massTex = inputs.massTex === null ? `m = ${inputs.mass}` : `m(${q}) = ${inputs.massTex}`;
-  const where = inputs.box ? `${q} \\in [${inputs.box[0]}, ${inputs.box[1]}]` : inputs.space === 'line' ? `${q} \\in \\mathbb{R}` : `${q} \\ge 0`;
+  // In quantity mode the walls are stated in the block's length unit and the mass in electron masses.
+  const lengthUnit = result.quantity ? `\\ \\mathrm{${inputs.lengthUnit}}` : '';
+  const where = inputs.box ? `${q} \\in [${formatNumber(inputs.box[0], 10)}, ${formatNumber(inputs.box[1], 10)}]${lengthUnit}` : inputs.space === 'line' ? `${q} \\in \\mathbb{R}` : `${q} \\ge 0`;
+  const massTex = inputs.massTex === null ? `m = ${result.quantity ? `${inputs.mass}\\,m_e` : `${inputs.mass}`}` : `m(${q}) = ${inputs.massTex}`;
   const rows = [
     `<div>${tex(`H = ${kinetic} + ${inputs.potentialTex}, \\quad ${where}, \\quad ${massTex}`, true)}</div>`,
     inputs.trialTex !== null
@@ -63,9 +65,11 @@ function renderInputs(result: BlockResult): string {
       : `<div>Basis (linear variational method, ${result.states.length} level${result.states.length === 1 ? '' : 's'} reported):${tex(`${inputs.space === 'radial' ? 'R' : '\\psi'}(${q}) = \\sum_i c_i \\phi_i(${q})`, true)}<ol start="0" class="gw-basis">${(inputs.basisTex ?? []).map((b) => `<li>${tex(`\\phi = ${b}`)}</li>`).join('')}</ol></div>`,
   ];
   // Units stay outside the math: they are written as mathjs spells them (nm^-1), not as TeX.
-  const unitOf = (name: string) => (result.parameters[name]?.unit ? ` ${escapeHtml(result.parameters[name].unit!)}` : '');
-  const ranges = inputs.ranges.map((r) => `${tex(`${r.name} \\in [${formatNumber(r.min, 8)}, ${formatNumber(r.max, 8)}]`)}${unitOf(r.name)}, start ${formatNumber(r.start, 8)}`).join('; ');
-  const constants = Object.entries(inputs.constants).map(([k, v]) => tex(`${k} = ${formatNumber(v, 10)}`)).join(', ');
+  // From the block's units rather than the results, so an invalid block's ranges keep theirs too.
+  const unitOf = (name: string) => (result.quantity?.parameters[name]?.unit ? ` ${escapeHtml(result.quantity.parameters[name].unit!)}` : '');
+  const ranges = inputs.ranges.map((r) => `${tex(`${r.name} \\in [${formatNumber(r.min, 8)}, ${formatNumber(r.max, 8)}]`)}${unitOf(r.name)}, start ${formatNumber(r.start, 8)}${unitOf(r.name)}`).join('; ');
+  const constantUnit = (name: string) => (inputs.constantUnits?.[name] ? ` ${escapeHtml(inputs.constantUnits[name]!)}` : '');
+  const constants = Object.entries(inputs.constants).map(([k, v]) => `${tex(`${k} = ${formatNumber(v, 10)}`)}${constantUnit(k)}`).join(', ');
   if (ranges) rows.push(`<p>Varied: ${ranges}</p>`);
   if (constants) rows.push(`<p>Constants: ${constants}</p>`);
   return `<div class="gw-inputs">${rows.join('\n')}</div>`;
@@ -144,8 +148,8 @@ function renderAudit(result: BlockResult, context: PanelContext): string {
   if (d) {
     items.push(`energy evaluations ${d.energyEvaluations}, trial evaluations ${d.trialEvaluations}, plot evaluations ${d.plotEvaluations}`);
     if (d.optimiser) items.push(`optimiser ${escapeHtml(d.optimiser.method)}: ${d.optimiser.iterations} iterations, ${d.optimiser.evaluations} evaluations, ${d.optimiser.starts} local search${d.optimiser.starts > 1 ? 'es' : ''}, converged ${d.optimiser.converged}`);
-    if (d.grid) items.push(`grid: ${d.grid.size} points, ${d.grid.elements} elements of order ${d.grid.elementOrder}, ${d.grid.refinements} refinements, domain [${formatNumber(d.grid.domain[0], 6)}, ${formatNumber(d.grid.domain[1], 6)}], last change ${d.grid.errorEstimate.map((e) => formatNumber(e, 2)).join(', ')}`);
-    if (d.energyError !== null) items.push(`quadrature error estimate of E ${formatNumber(d.energyError, 3)}`);
+    if (d.grid) items.push(`grid: ${d.grid.size} points, ${d.grid.elements} elements of order ${d.grid.elementOrder}, ${d.grid.refinements} refinements, domain [${formatNumber(d.grid.domain[0], 6)}, ${formatNumber(d.grid.domain[1], 6)}] ${escapeHtml(result.inputs?.lengthUnit ?? 'bohr')}, last change ${d.grid.errorEstimate.map((e) => formatNumber(e, 2)).join(', ')}`);
+    if (d.energyError !== null) items.push(`quadrature error estimate of E ${formatNumber(d.energyError, 3)} ${escapeHtml(result.energy?.unit ?? 'hartree')}`);
   }
   return `<details class="gw-audit"><summary>Audit trail</summary><ul>${items.map((i) => `<li>${i}</li>`).join('')}</ul></details>`;
 }
