@@ -8,6 +8,7 @@ import { ATOMIC_DISPLAY, g, type ValueDisplay } from './format.ts';
 import type { GridLevels } from './grid-levels.ts';
 import { describeLevel, resolveTarget, type TargetLevel, GROUND_LEVEL } from './parity.ts';
 import { gridReference } from './grid-reference.ts';
+import { hamiltonianSwitches, massPositiveCheck } from './mass-profile.ts';
 import { minimizeBounded, type MinimizeResult } from './minimize.ts';
 import { plotData, type PlotData } from './plot-data.ts';
 import type { VariationalProblem } from './problem.ts';
@@ -75,9 +76,12 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
   // The potential's kinks are searched for around where the trial lives, once for the whole search.
   const startProbe = probeTrial(problem.trial.value, domain);
   counts.trialEvaluations += startProbe.evaluations;
-  const potentialBreaks = findBreakpoints(problem.potentialSwitches, domain.lo, domain.hi, startProbe.center, startProbe.scale).points;
+  const massFault = massPositiveCheck(problem, domain, startProbe.center, startProbe.scale);
+  if (massFault) return invalidResult([massFault], counts, started);
+  // A step of the mass is a split point and a grid element edge, as a kink of the potential is.
+  const potentialBreaks = findBreakpoints(hamiltonianSwitches(problem), domain.lo, domain.hi, startProbe.center, startProbe.scale).points;
   const atStart = counted(placedExpectation(problem, domain, potentialBreaks, startProbe), counts);
-  const startChecks = [...trialChecks(problem, domain, atStart, 'the start values'), ...targetOf(problem, domain, atStart, 'the start values').checks];
+  const startChecks = [...trialChecks(problem, domain, atStart, 'the start values', show), ...targetOf(problem, domain, atStart, 'the start values').checks];
   if (startChecks.some((c) => !c.pass)) return invalidResult(startChecks, counts, started);
 
   let optimiser: MinimizeResult | null = null;
@@ -89,7 +93,7 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
   }
   const optimum = evaluate(problem, domain, potentialBreaks, best, counts);
   const { target, checks: targetChecks } = targetOf(problem, domain, optimum, 'the optimum');
-  const optimumChecks = [...trialChecks(problem, domain, optimum, 'the optimum'), ...targetChecks];
+  const optimumChecks = [...trialChecks(problem, domain, optimum, 'the optimum', show), ...targetChecks];
   if (optimumChecks.some((c) => !c.pass)) return invalidResult(optimumChecks, counts, started);
 
   const checks: GradedCheck[] = [...optimumChecks];
@@ -155,7 +159,7 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
     gridError,
     bounds: { upper: energy, lower, weinstein: weinsteinInterval(energy, variance.value), nextLevel },
     overlap,
-    ...virialReport(problem.potential, domain.walls, domain.lo === -Infinity, optimum.kinetic, optimum.potential),
+    ...virialReport(problem.potential, domain.walls, domain.lo === -Infinity, optimum.kinetic, optimum.potential, Boolean(problem.massProfile)),
     optimiser,
     checks,
     counts: { ...counts, trialEvaluations: counts.trialEvaluations + variance.evaluations },
@@ -183,16 +187,16 @@ function counted<T extends { evaluations: number }>(result: T, counts: EngineRes
 }
 
 /** Square-integrable, finite energy integrals, and zero at every hard wall. */
-function trialChecks(problem: VariationalProblem, domain: Domain, at: Expectation, where: string): GradedCheck[] {
+function trialChecks(problem: VariationalProblem, domain: Domain, at: Expectation, where: string, show: ValueDisplay): GradedCheck[] {
   // A NaN or an overflow met by the quadrature is traced to the input that produced it.
-  const nonFinite = at.failure === 'non-finite' ? findNonFiniteFactor(problem.potential, problem.trial, domain, at.probe) : null;
+  const nonFinite = at.failure === 'non-finite' ? findNonFiniteFactor(problem.potential, problem.trial, domain, at.probe, show) : null;
   const checks = [
     nonFinite
       ? gradedCheck('finite-integrands', false, `at ${where}: ${nonFinite.detail}`, 'invalid', nonFinite.culprit === 'potential' ? 'potential' : undefined)
       : gradedCheck(
           'normalisable',
           at.failure === null,
-          at.failure === null ? `norm integral ${g(at.norm)} at ${where}` : `at ${where}: ${at.failureDetail}`,
+          at.failure === null ? `norm integral ${show.norm(at.norm)} at ${where}` : `at ${where}: ${at.failureDetail}`,
           'invalid',
         ),
   ];
@@ -204,7 +208,7 @@ function trialChecks(problem: VariationalProblem, domain: Domain, at: Expectatio
       gradedCheck(
         'hard-wall',
         Number.isFinite(psi) && ratio <= WALL_TOLERANCE,
-        `trial at the wall ${g(wall)} is ${g(psi, 4)} (${g(ratio, 3)} of its peak; must vanish) at ${where}`,
+        `trial at the wall ${show.length(wall)} is ${g(psi, 4)} (${g(ratio, 3)} of its peak; must vanish) at ${where}`,
         'invalid',
       ),
     );

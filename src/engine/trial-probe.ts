@@ -1,5 +1,5 @@
 import type { Domain } from './domain.ts';
-import { g } from './format.ts';
+import { ATOMIC_DISPLAY, g, type ValueDisplay } from './format.ts';
 import type { TrialFamily } from './problem.ts';
 
 /** Where a trial's density lives: its peak, a length scale, and whether it is finite everywhere probed. */
@@ -86,7 +86,7 @@ export interface NonFiniteFactor {
   detail: string;
 }
 
-export function findNonFiniteFactor(potential: (x: number) => number, trial: TrialFamily, domain: Domain, probe: TrialProbe): NonFiniteFactor | null {
+export function findNonFiniteFactor(potential: (x: number) => number, trial: TrialFamily, domain: Domain, probe: TrialProbe, show: ValueDisplay = ATOMIC_DISPLAY): NonFiniteFactor | null {
   const coordinate = domain.radial ? 'r' : 'x';
   // Where the trial has decayed the integrands are not formed, so nothing there is at fault.
   const samples = probePoints(domain)
@@ -95,7 +95,7 @@ export function findNonFiniteFactor(potential: (x: number) => number, trial: Tri
   let peak = { x: 0, psi: 0 };
   for (const p of samples) if (Math.abs(p.psi) > Math.abs(peak.psi) && Number.isFinite(p.psi)) peak = p;
   samples.sort((a, b) => Math.abs(a.x - peak.x) - Math.abs(b.x - peak.x));
-  const at = (x: number) => `${coordinate} = ${g(x, 6)}`;
+  const at = (x: number) => `${coordinate} = ${show.length(x, 6)}`;
 
   const bad = samples.find((p) => !Number.isFinite(p.psi));
   if (bad) return { culprit: 'trial', detail: `the trial is ${g(bad.psi)} at ${at(bad.x)} (${Number.isNaN(bad.psi) ? 'it is not defined there' : 'a trial that overflows is not square-integrable'})` };
@@ -105,7 +105,7 @@ export function findNonFiniteFactor(potential: (x: number) => number, trial: Tri
     if (!Number.isFinite(v * psi * psi)) {
       return {
         culprit: 'potential',
-        detail: `V |psi|^2 is not a finite number at ${at(x)} (the potential there is ${g(v)}, the trial ${g(psi, 4)}); the potential must be finite wherever the trial lives`,
+        detail: `V |psi|^2 is not a finite number at ${at(x)} (the potential there is ${show.energy(v)}, the trial ${g(psi, 4)}); the potential must be finite wherever the trial lives`,
       };
     }
   }

@@ -35,6 +35,7 @@ export interface VirialReport {
 }
 
 export const WALL_VIRIAL_NOTE = 'no virial theorem with hard walls away from the origin';
+export const MASS_VIRIAL_NOTE = 'no virial theorem in this form with a position-dependent mass';
 
 /**
  * The virial ratio where the theorem 2<T> = k<V> holds: the dilation psi(x) -> psi(s x) must keep the
@@ -42,10 +43,12 @@ export const WALL_VIRIAL_NOTE = 'no virial theorem with hard walls away from the
  * A wall at a != 0 adds the surface term (hbar^2/2m) [x |psi'|^2] over the walls to the exact
  * relation (hypervirial theorem with a boundary term; e.g. a particle in [0, L] with V = 0 has
  * 2<T> = (hbar^2/2m) L |psi'(L)|^2, not 0; Fernandez & Castro, Hypervirial Theorems, Springer 1987,
- * from memory), so a ratio there measures the wall, not the trial.
+ * from memory), so a ratio there measures the wall, not the trial. The theorem in this form also
+ * rests on a constant mass (a mass m(x) scales with the dilation too).
  */
-export function virialReport(potential: (x: number) => number, walls: readonly number[], twoSided: boolean, kinetic: number, potentialEnergy: number): VirialReport {
+export function virialReport(potential: (x: number) => number, walls: readonly number[], twoSided: boolean, kinetic: number, potentialEnergy: number, massVaries = false): VirialReport {
   const virial = virialRatio(potential, twoSided, kinetic, potentialEnergy);
+  if (virial && massVaries) return { virial: null, virialNote: MASS_VIRIAL_NOTE };
   if (virial && walls.some((wall) => wall !== 0)) return { virial: null, virialNote: WALL_VIRIAL_NOTE };
   return { virial, virialNote: null };
 }

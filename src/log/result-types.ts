@@ -15,7 +15,10 @@ export interface BlockInputs {
   space: string;
   box: [number, number] | null;
   angularMomentum: number;
-  mass: number;
+  /** The constant mass (electron masses), or null when it depends on the coordinate (see massTex). */
+  mass: number | null;
+  /** A position-dependent mass typeset, or null for a constant one. */
+  massTex: string | null;
   coordinate: 'x' | 'r';
   /** The unit lengths are given in: bohr in atomic units, the block's own in quantity mode. */
   lengthUnit: string;
@@ -24,7 +27,10 @@ export interface BlockInputs {
   trialTex: string | null;
   /** The basis functions typeset, or null for a trial block. */
   basisTex: string[] | null;
+  /** Declared constants: in atomic units, or in quantity mode in the unit `constantUnits` names. */
   constants: Record<string, number>;
+  /** Quantity mode only: the unit each declared constant is stated in (as written, else coherent SI; null for a pure number). */
+  constantUnits?: Record<string, string | null>;
   ranges: Array<{ name: string; start: number; min: number; max: number }>;
 }
 
