@@ -1,5 +1,6 @@
-import { axialAxes, axialEnergyIntegrand, cartesianEnergyIntegrand, energyFromIntegrals, RHO, Z, type AxialClosures, type CartesianClosures } from '../src/engine/cubature/energy-integrands.ts';
-import { integrateProduct, type CubatureAxis, type CubaturePartition, type ProductIntegrand } from '../src/engine/cubature/integrate-product.ts';
+import { axialEnergyIntegrand, cartesianEnergyIntegrand, energyFromIntegrals, RHO, Z, type AxialClosures, type CartesianClosures } from '../src/engine/cubature/energy-integrands.ts';
+import { integrateAxial, type AxialPartition } from '../src/engine/cubature/integrate-axial.ts';
+import { integrateProduct, type CubaturePartition, type CubatureResult, type ProductIntegrand } from '../src/engine/cubature/integrate-product.ts';
 
 /**
  * The variational part of a two-parameter search in the axial and product spaces: energies at a
@@ -11,10 +12,14 @@ import { integrateProduct, type CubatureAxis, type CubaturePartition, type Produ
 const POINTS = Number(process.argv[2] ?? 100);
 const REL_TOL = 1e-10;
 
+type Start = AxialPartition | CubaturePartition | undefined;
+
 interface Case {
   components: ProductIntegrand;
-  axes: CubatureAxis[];
-  order?: number[];
+  /** One energy run from the given panels; the axial space splits at its nuclei, a product space integrates its axes. */
+  run: (start: Start) => Omit<CubatureResult, 'partition'> & { partition: Start | null };
+  dims: number;
+  lower: number[];
   optimum: [number, number];
   set: (p: [number, number]) => void;
   points: number;
@@ -33,8 +38,7 @@ function hydrogenGaussian(): Case {
     mass: 1,
     magnetic: 0,
   };
-  const { axes, order } = axialAxes([0], 0, 1 / Math.sqrt(0.28));
-  return { components: axialEnergyIntegrand(trial), axes, order, optimum: [0.283, 0.283], set: ([x, y]) => { a = x; b = y; }, points: POINTS };
+  return axial(axialEnergyIntegrand(trial), [0], 1 / Math.sqrt(0.28), { optimum: [0.283, 0.283], set: ([x, y]) => { a = x; b = y; }, points: POINTS });
 }
 
 /** H2+ at R = 2 with a polarised LCAO trial (1 + b (z - z_a)) e^{-a r_a} + (1 - b (z - z_b)) e^{-a r_b}. */
@@ -62,8 +66,7 @@ function molecularIon(): Case {
     mass: 1,
     magnetic: 0,
   };
-  const { axes, order } = axialAxes([za, zb], 0, 1);
-  return { components: axialEnergyIntegrand(trial), axes, order, optimum: [1.24, 0.14], set: ([x, y]) => { a = x; b = y; }, points: POINTS };
+  return axial(axialEnergyIntegrand(trial), [za, zb], 1, { optimum: [1.24, 0.14], set: ([x, y]) => { a = x; b = y; }, points: POINTS });
 }
 
 /** An anisotropic oscillator (masses 1 and 3, frequencies 1 and 0.5) with exp(-a x^2 - b y^2), or in 3 coordinates with a third (mass 0.5, frequency 2, fixed width). */
@@ -81,15 +84,25 @@ function oscillator(dims: 2 | 3): Case {
     masses: [1, 3, 0.5].slice(0, dims),
   };
   const axes = [0.5, 0.75, 0.5].slice(0, dims).map((w) => ({ lo: -Infinity, hi: Infinity, breakpoints: [], center: 0, scale: 1 / Math.sqrt(w) }));
-  return { components: cartesianEnergyIntegrand(trial), axes, optimum: [0.5, 0.75], set: ([x, y]) => { a = x; b = y; }, points: dims === 2 ? POINTS : 10 };
+  const components = cartesianEnergyIntegrand(trial);
+  return {
+    components, dims, lower: axes.map(() => -3), optimum: [0.5, 0.75], set: ([x, y]) => { a = x; b = y; }, points: dims === 2 ? POINTS : 10,
+    run: (start) => integrateProduct(components, 3, axes, { relTol: REL_TOL, start: start as CubaturePartition | undefined }),
+  };
+}
+
+function axial(components: ProductIntegrand, centres: number[], scale: number, search: Pick<Case, 'optimum' | 'set' | 'points'>): Case {
+  return {
+    ...search, components, dims: 2, lower: [0, -3],
+    run: (start) => integrateAxial(components, 3, centres, { scale, relTol: REL_TOL, start: start as AxialPartition | undefined }),
+  };
 }
 
 /** Nanoseconds per call of the integrand alone, on points spread where the trial lives. */
 function integrandNs(c: Case): number {
   c.set(c.optimum);
-  const dims = c.axes.length;
-  const samples = Array.from({ length: 1024 }, (_, i) => Float64Array.from({ length: dims }, (_, k) => {
-    const lo = Number.isFinite(c.axes[k].lo) ? c.axes[k].lo : -3;
+  const samples = Array.from({ length: 1024 }, (_, i) => Float64Array.from({ length: c.dims }, (_, k) => {
+    const lo = c.lower[k];
     return lo + (3 - lo) * (((i * (k + 3)) % 1024 + 0.5) / 1024);
   }));
   const out = new Float64Array(3);
@@ -107,7 +120,7 @@ function integrandNs(c: Case): number {
 }
 
 function search(c: Case, warm: boolean) {
-  let start: CubaturePartition | undefined;
+  let start: Start;
   let evaluations = 0;
   let worstEstimate = 0;
   let converged = true;
@@ -115,7 +128,7 @@ function search(c: Case, warm: boolean) {
   for (let i = 0; i < c.points; i++) {
     const shrink = 0.3 * 0.95 ** i;
     c.set([c.optimum[0] * (1 + shrink * Math.sin(i)), c.optimum[1] * (1 + shrink * Math.cos(i))]);
-    const result = integrateProduct(c.components, 3, c.axes, { relTol: REL_TOL, order: c.order, start });
+    const result = c.run(start);
     if (warm) start = result.partition ?? undefined;
     evaluations += result.evaluations;
     converged &&= result.converged;
