@@ -11,6 +11,8 @@ export function formatTable(log: LogResult): string {
     for (const p of record.problems) notes.push(`${p.file}:${p.line} ${p.field ?? ''}: ${p.message}`);
     for (const b of record.blocks) {
       rows.push([record.file, b.id, b.status, num(b.energy?.value), num(b.bounds.lower), num(b.reference?.energy), b.energy?.unit ?? '-', `${Math.round(b.timeMs)} ms`]);
+      // A confirmed basis block may still have had near-dependent functions dropped: the writer should know.
+      if (b.basis?.warning) notes.push(`${record.file}:${b.line} [${b.id}] basis: ${b.basis.warning}`);
       if (b.status !== 'confirmed') {
         if (b.problems.length > 0) for (const p of b.problems) notes.push(`${p.file}:${p.line} [${p.block}] ${p.field ?? ''}: ${p.message}`);
         else notes.push(`${record.file}:${b.line} [${b.id}] ${b.status}: ${b.message}`);

@@ -58,7 +58,7 @@ export function evaluateBasisProblem(problem: BasisProblem): EngineResult {
     gradedCheck(
       'basis-usable',
       true,
-      `${functions.length} functions, ${overlapInfo.kept} independent combinations kept (overlap condition number ${g(overlapInfo.conditionNumber, 3)}${overlapInfo.dropped > 0 ? `, ${overlapInfo.dropped} near-dependent dropped` : ''})`,
+      `${functions.length} functions, ${overlapInfo.kept} independent combinations kept (overlap matrix ${overlapInfo.summary})`,
       'invalid',
     ),
     gradedCheck(
@@ -146,6 +146,14 @@ export function evaluateBasisProblem(problem: BasisProblem): EngineResult {
     timings,
     plots,
     states: levels.map((level, k) => ({ energy: level.energy, errorEstimate: level.errorEstimate, reference: grid?.levels[k] ?? null })),
-    basis: { functions: functions.length, kept: overlapInfo.kept, dropped: overlapInfo.dropped, conditionNumber: overlapInfo.conditionNumber, warning: solution.warning },
+    basis: {
+      functions: functions.length,
+      kept: overlapInfo.kept,
+      dropped: overlapInfo.dropped,
+      conditionNumber: Number.isFinite(overlapInfo.conditionNumber) ? overlapInfo.conditionNumber : null,
+      keptConditionNumber: overlapInfo.keptConditionNumber,
+      conditioning: overlapInfo.summary,
+      warning: solution.warning,
+    },
   };
 }

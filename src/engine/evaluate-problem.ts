@@ -45,7 +45,12 @@ export interface BasisDiagnostics {
   functions: number;
   kept: number;
   dropped: number;
-  conditionNumber: number;
+  /** Of the unit-diagonal overlap matrix; null when it is singular to rounding (then directions were dropped). */
+  conditionNumber: number | null;
+  /** The same over the kept directions, the subspace the levels were solved in. */
+  keptConditionNumber: number;
+  /** The conditioning in one phrase: "condition number 12.3", or "numerically singular: 1 of 3 directions dropped ...". */
+  conditioning: string;
   warning: string | null;
 }
 

@@ -64,10 +64,14 @@ export interface LinearBasisResult {
   warning: string | null;
   /** The stages below are null when the solve failed before reaching them. */
   overlap: {
-    /** Largest over smallest eigenvalue of S scaled to unit diagonal. */
+    /** Largest over smallest eigenvalue of S scaled to unit diagonal; Infinity when S is singular to rounding. */
     conditionNumber: number;
+    /** The same over the kept directions only: always finite once a direction is kept. */
+    keptConditionNumber: number;
     dropped: number;
     kept: number;
+    /** The conditioning in one phrase, for panels, tables and check details. */
+    summary: string;
     /** Eigenvalues of the unit-diagonal S at or below this were dropped: overlapThreshold * largest or the noise floor. */
     cutoff: number;
     /** How far the quadrature errors of S can move those eigenvalues (Weyl bound). */
@@ -213,8 +217,10 @@ export function solveLinearBasis(
   const eigen = solveGeneralized(h.flat(), s.flat(), n, settings.overlapThreshold, sError.flat());
   const overlapReport = {
     conditionNumber: eigen.conditionNumber,
+    keptConditionNumber: eigen.keptConditionNumber,
     dropped: eigen.dropped,
     kept: n - eigen.dropped,
+    summary: describeConditioning(eigen.conditionNumber, eigen.keptConditionNumber, eigen.dropped, n),
     cutoff: eigen.cutoff,
     noiseFloor: eigen.noiseFloor,
     eigenvalues: Array.from(eigen.overlapEigenvalues),
@@ -236,7 +242,9 @@ export function solveLinearBasis(
     });
   }
   const warnings: string[] = [];
-  if (!(eigen.conditionNumber <= settings.conditionWarning)) {
+  if (!Number.isFinite(eigen.conditionNumber)) {
+    warnings.push('the overlap matrix is numerically singular (its smallest eigenvalue is zero to rounding): some basis functions are linear combinations of the others');
+  } else if (eigen.conditionNumber > settings.conditionWarning) {
     warnings.push(`the overlap matrix is poorly conditioned (condition number ${eigen.conditionNumber.toPrecision(3)} above ${settings.conditionWarning.toPrecision(3)}): the basis is nearly linearly dependent`);
   }
   if (eigen.dropped > 0) {
@@ -245,6 +253,18 @@ export function solveLinearBasis(
   if (count < problem.states) warnings.push(`${problem.states} states asked for, but the basis spans only ${count} independent functions`);
   if (!integrals.converged) warnings.push(`quadrature stopped short (${integrals.message}); its error estimates are included in each level's`);
   return { ...empty, ...common, levels, warning: warnings.length > 0 ? warnings.join('; ') : null };
+}
+
+/**
+ * The overlap matrix's conditioning in words: its condition number when finite, else "numerically singular", and
+ * with dropped directions the condition number of the kept ones, which is what the levels were solved with.
+ */
+export function describeConditioning(conditionNumber: number, keptConditionNumber: number, dropped: number, functions: number): string {
+  const g = (value: number) => value.toPrecision(3);
+  const whole = Number.isFinite(conditionNumber) ? `condition number ${g(conditionNumber)}` : 'numerically singular';
+  if (dropped === 0) return whole;
+  const directions = `${dropped} of ${functions} direction${functions > 1 ? 's' : ''} dropped as near-dependent`;
+  return `${whole}: ${directions}; condition number ${g(keptConditionNumber)} over the ${functions - dropped} kept`;
 }
 
 /** sum_ij c_i c_j M_ij, or when `absolute` sum_ij |c_i c_j M_ij|. */

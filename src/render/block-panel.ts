@@ -92,7 +92,7 @@ function renderResults(result: BlockResult): string {
       rows.push(row(`level ${tex(`E_{${k}}`)} (upper bound)`, `${formatNumber(state.energy)}${error}`));
     });
   }
-  if (result.basis) rows.push(row('overlap matrix', `${result.basis.functions} functions, ${result.basis.kept} kept; condition number ${formatNumber(result.basis.conditionNumber, 3)}`));
+  if (result.basis) rows.push(row('overlap matrix', `${result.basis.functions} functions, ${result.basis.kept} kept; ${escapeHtml(result.basis.conditioning)}`));
   if (result.errors.vsGrid !== null) rows.push(row('relative error against the grid', formatNumber(result.errors.vsGrid, 3)));
   if (result.errors.vsPublished !== null) rows.push(row('relative error against the published value', formatNumber(result.errors.vsPublished, 3)));
   if (result.overlap !== null) rows.push(row('overlap with the grid ground state', formatNumber(result.overlap, 8)));

@@ -1,8 +1,9 @@
 import { isScalar, LineCounter, parseDocument, type Document } from 'yaml';
 import type { ZodIssue } from 'zod';
-import { blockSchema, RESERVED_NAMES, type QuantityText, type RawBlock } from './block-schema.ts';
+import { blockSchema, knownFields, RESERVED_NAMES, type QuantityText, type RawBlock } from './block-schema.ts';
 import type { FencedBlock } from './find-blocks.ts';
 import type { BlockEntry, BlockSpec, Claimed, SpecProblem } from './types.ts';
+import { didYouMean } from './nearest-name.ts';
 import { writtenPrecision } from './written-precision.ts';
 import { locateYamlError } from './yaml-errors.ts';
 import { convertQuantityBlock, type QuantityBlockSource, type QuantitySource } from '../units/quantity-block.ts';
@@ -53,10 +54,14 @@ export function parseBlock(file: string, fenced: FencedBlock, index: number): Bl
   const parsed = blockSchema.safeParse(data);
   if (!parsed.success) {
     return invalid(
-      parsed.error.issues.flatMap((issue) =>
-        // An unknown key is reported on its own line, under its own name.
-        issue.code === 'unrecognized_keys' ? issue.keys.map((key) => problem([...issue.path, key], `unknown field ${key}`)) : [problem(issue.path, describeIssue(issue))],
-      ),
+      parsed.error.issues.flatMap((issue) => {
+        // An unknown key is reported on its own line, under its own name; in a map that may take several forms
+        // (a varied parameter's range) a misspelt key also explains the field it leaves missing.
+        const unknown = issue.code === 'invalid_union' ? issue.unionErrors.flatMap((e) => e.issues).find((i) => i.code === 'unrecognized_keys') : issue;
+        return unknown?.code === 'unrecognized_keys'
+          ? unknown.keys.map((key) => problem([...unknown.path, key], `unknown field ${key}${didYouMean(key, knownFields(unknown.path))}`))
+          : [problem(issue.path, describeIssue(issue))];
+      }),
     );
   }
   const raw = parsed.data;

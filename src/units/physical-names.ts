@@ -20,6 +20,9 @@ const NAMES = [
   'wienDisplacement', 'planckLength', 'planckMass', 'planckTime', 'planckCharge', 'planckTemperature',
 ] as const;
 
+/** The physical constants a quantity-mode expression may name. */
+export const PHYSICAL_CONSTANT_NAMES: readonly string[] = NAMES;
+
 // Not every constant is in mathjs's static typings (coulombConstant is missing), so look them up by name.
 const mathjsByName = mathjs as unknown as Readonly<Record<string, Unit | number | undefined>>;
 const PHYSICAL_CONSTANTS: ReadonlyMap<string, Unit | number> = new Map(

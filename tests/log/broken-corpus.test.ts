@@ -59,7 +59,14 @@ const EXPECTED: Record<string, Expected> = {
   'wrong-type-mass': { blocks: [invalid('mass-d4', 'must be a number', on('mass', 'mass: heavy'))] },
   'wrong-type-potential-list': { blocks: [invalid('potlist-d5', 'must be an expression written as text', on('potential', 'potential: ['))] },
   'wrong-type-box': { blocks: [invalid('box-d6', 'must be [a, b] with two numbers', on('box', 'box: [0]'))] },
-  'unknown-field': { blocks: [invalid('typo-d7', 'unknown field trail', on('trail', 'trail:'))] },
+  // Suggestions: the nearest valid name by edit distance (Damerau 1964); trail -> trial is one transposition.
+  'unknown-field': { blocks: [invalid('typo-d7', 'unknown field trail: did you mean trial?', on('trail', 'trail:'))] },
+  'field-misspelt-potential': { blocks: [invalid('typo-d15', 'unknown field potental: did you mean potential?', on('potential', '```variational'), on('potental', 'potental:'))] },
+  'name-misspelt': { blocks: [invalid('omga-d16', 'unknown name omga: did you mean omega?', on('potential', 'potential: omga'))] },
+  // `^` is the power operator of the mathjs syntax (mathjs docs, "Syntax"); `**` is Python's.
+  'power-double-star': { blocks: [invalid('stars-d14', 'use ^ for powers', on('potential', 'potential: x**2'))] },
+  // The record format lists { value, uncertainty } as a feature still to come.
+  'uncertain-constant': { blocks: [invalid('uncertain-d17', 'uncertain inputs ({ value, uncertainty }) are not supported yet', on('constants.k', '  k: {'))] },
   'unknown-name': { blocks: [invalid('omega-d8', 'unknown name omega', on('potential', 'potential: omega'))] },
   'unknown-function': { blocks: [invalid('gamma-d9', 'function gamma is not allowed', on('trial', 'trial:'))] },
   'bad-id-slug': { blocks: [invalid('dot d10!', 'must be a slug', on('id', 'id: dot d10!'))] },
@@ -122,6 +129,8 @@ const EXPECTED: Record<string, Expected> = {
   'front-matter-broken': { record: [{ field: 'title', at: 'title:', message: 'front matter is not valid YAML: Missing closing "quote' }], blocks: [healthy('fm-f1')] },
   'front-matter-missing': { record: [{ field: 'front matter', at: 'Front matter F2', message: 'the record has no YAML front matter' }], blocks: [healthy('fm-f2')] },
   'front-matter-unclosed': { record: [{ field: 'front matter', at: '---', message: 'is never closed' }], blocks: [healthy('fm-f3')] },
+  // ISO 8601 calendar dates have months 01 to 12.
+  'front-matter-bad-date': { record: [{ field: 'date', at: 'date:', message: 'front matter date 2027-13-45 has month 13' }], blocks: [healthy('fm-f5')] },
   'front-matter-wrong-types': {
     record: [
       { field: 'tags', at: 'tags: corpus', message: 'front matter tags must be a list' },
@@ -196,13 +205,13 @@ describe('the broken-record corpus', () => {
     const statuses = names.flatMap((name) => result(name).blocks.map((b) => b.status));
     for (const status of statuses) expect(STATUS_ORDER).toContain(status);
     const count = (s: string) => statuses.filter((t) => t === s).length;
-    // 62 blocks: 54 invalid, 5 healthy (confirmed), one each of disputed, below-reference, unsettled.
+    // 67 blocks: 58 invalid, 6 healthy (confirmed), one each of disputed, below-reference, unsettled.
     expect({ invalid: count('invalid'), 'below-reference': count('below-reference'), unsettled: count('unsettled'), disputed: count('disputed'), confirmed: count('confirmed') }).toEqual({
-      invalid: 54,
+      invalid: 58,
       'below-reference': 1,
       unsettled: 1,
       disputed: 1,
-      confirmed: 5,
+      confirmed: 6,
     });
   });
 });
