@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { integrateVector } from '../../../src/engine/quadrature.ts';
 import { integrateProduct, type CubatureAxis, type CubaturePartition, type ProductIntegrand } from '../../../src/engine/cubature/integrate-product.ts';
 
 const TWO_PI = 2 * Math.PI;
@@ -109,5 +110,22 @@ describe('integrateProduct', () => {
     expect(result.status).toBe('non-finite');
     expect(result.message).toMatch(/x0 = .*axis 1/);
     expect(result.partition).toBeNull();
+  });
+});
+
+describe('integrateVector with components carried along', () => {
+  it('lets only the tested components decide the panels, integrating the rest on them', () => {
+    // int_0^1 e^x dx = e - 1 and int_0^1 x^(-1/2) dx = 2 (closed forms); the second, singular at 0,
+    // needs many bisections to meet the tolerance when tested and none when it is only carried.
+    const integrand = (x: number, out: Float64Array) => { out[0] = Math.exp(x); out[1] = 1 / Math.sqrt(x); };
+    const carried = integrateVector(integrand, 2, { breakpoints: [0, 1], relTol: 1e-12, tested: 1 });
+    const both = integrateVector(integrand, 2, { breakpoints: [0, 1], relTol: 1e-12 });
+    expect(carried.converged).toBe(true);
+    expect(carried.intervals).toBe(1);
+    expect(relativeError(carried.values[0], Math.E - 1)).toBeLessThan(1e-14);
+    expect(both.intervals).toBeGreaterThan(10);
+    expect(relativeError(both.values[1], 2)).toBeLessThan(1e-11);
+    expect(Math.abs(carried.values[1] - 2)).toBeGreaterThan(1e-6); // one panel cannot resolve x^(-1/2)
+    expect(() => integrateVector(integrand, 2, { breakpoints: [0, 1], tested: 3 })).toThrow(RangeError);
   });
 });
