@@ -5,6 +5,7 @@ import { groundOverlap, invalidResult, type EngineResult } from './evaluate-prob
 import { ATOMIC_DISPLAY, g } from './format.ts';
 import { gridReference } from './grid-reference.ts';
 import { optimiseLinearBasis, solveLinearBasis, type LinearBasisProblem, type LinearBasisResult } from './linear-basis.ts';
+import { hamiltonianSwitches, massPositiveCheck } from './mass-profile.ts';
 import type { MinimizeResult } from './minimize.ts';
 import { plotData } from './plot-data.ts';
 import type { BasisProblem } from './problem.ts';
@@ -30,7 +31,9 @@ export function evaluateBasisProblem(problem: BasisProblem): EngineResult {
   setParameters(start);
   const envelope = (x: number) => Math.sqrt(functions.reduce((sum, f) => sum + f.value(x) ** 2, 0));
   const probe = probeTrial(envelope, domain);
-  const breaks = [...new Set([...findBreakpoints(problem.potentialSwitches, domain.lo, domain.hi, probe.center, probe.scale).points, ...findBreakpoints(switches, domain.lo, domain.hi, probe.center, probe.scale).points])].sort((a, b) => a - b);
+  const massFault = massPositiveCheck(problem, domain, probe.center, probe.scale);
+  if (massFault) return invalidResult([massFault], { energyEvaluations: 0, trialEvaluations: probe.evaluations }, started);
+  const breaks = [...new Set([...findBreakpoints(hamiltonianSwitches(problem), domain.lo, domain.hi, probe.center, probe.scale).points, ...findBreakpoints(switches, domain.lo, domain.hi, probe.center, probe.scale).points])].sort((a, b) => a - b);
   const linear: LinearBasisProblem = { ...problem, basis: { functions, setParameters }, breakpoints: breaks, states: problem.states };
 
   let optimiser: MinimizeResult | null = null;
@@ -139,7 +142,7 @@ export function evaluateBasisProblem(problem: BasisProblem): EngineResult {
     gridError,
     bounds: { upper: energy, lower: null, weinstein: null, nextLevel: levels[1]?.energy ?? null },
     overlap,
-    virial: virialRatio(problem.potential, domain.lo === -Infinity, ground.kinetic, ground.potential),
+    virial: problem.massProfile ? null : virialRatio(problem.potential, domain.lo === -Infinity, ground.kinetic, ground.potential),
     optimiser,
     checks,
     counts,

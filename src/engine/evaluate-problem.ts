@@ -7,6 +7,7 @@ import { expectation, placedExpectation, searchExpectation, type Expectation } f
 import { ATOMIC_DISPLAY, g, type ValueDisplay } from './format.ts';
 import type { GridLevels } from './grid-levels.ts';
 import { gridReference } from './grid-reference.ts';
+import { hamiltonianSwitches, massPositiveCheck } from './mass-profile.ts';
 import { minimizeBounded, type MinimizeResult } from './minimize.ts';
 import { plotData, type PlotData } from './plot-data.ts';
 import type { VariationalProblem } from './problem.ts';
@@ -70,7 +71,10 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
   // The potential's kinks are searched for around where the trial lives, once for the whole search.
   const startProbe = probeTrial(problem.trial.value, domain);
   counts.trialEvaluations += startProbe.evaluations;
-  const potentialBreaks = findBreakpoints(problem.potentialSwitches, domain.lo, domain.hi, startProbe.center, startProbe.scale).points;
+  const massFault = massPositiveCheck(problem, domain, startProbe.center, startProbe.scale);
+  if (massFault) return invalidResult([massFault], counts, started);
+  // A step of the mass is a split point and a grid element edge, as a kink of the potential is.
+  const potentialBreaks = findBreakpoints(hamiltonianSwitches(problem), domain.lo, domain.hi, startProbe.center, startProbe.scale).points;
   const atStart = counted(placedExpectation(problem, domain, potentialBreaks, startProbe), counts);
   const startChecks = trialChecks(problem, domain, atStart, 'the start values');
   if (startChecks.some((c) => !c.pass)) return invalidResult(startChecks, counts, started);
@@ -142,7 +146,8 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
     gridError,
     bounds: { upper: energy, lower, weinstein: weinsteinInterval(energy, variance.value), nextLevel },
     overlap,
-    virial: virialRatio(problem.potential, domain.lo === -Infinity, optimum.kinetic, optimum.potential),
+    // The virial theorem's 2<T> = k<V> rests on a constant mass.
+    virial: problem.massProfile ? null : virialRatio(problem.potential, domain.lo === -Infinity, optimum.kinetic, optimum.potential),
     optimiser,
     checks,
     counts: { ...counts, trialEvaluations: counts.trialEvaluations + variance.evaluations },

@@ -1,6 +1,6 @@
 import { findBreakpoints } from './breakpoints.ts';
 import { splitPoints, type Domain } from './domain.ts';
-import type { VariationalProblem } from './problem.ts';
+import type { MassProfile, VariationalProblem } from './problem.ts';
 import { integrateVector, type IntegrationResult, type Partition } from './quadrature.ts';
 import { probeTrial, type TrialProbe } from './trial-probe.ts';
 
@@ -26,7 +26,8 @@ export interface Expectation {
 export const EXPECTATION_DEFAULTS = { relTol: 1e-12, maxIntervals: 2000 };
 
 /**
- * N = <psi|psi>, <T> = (hbar^2/2m) <psi'|psi'> (radial: plus l(l+1)/(2 m r^2) and weight r^2) and <V>,
+ * N = <psi|psi>, <T> = (hbar^2/2m) <psi'|psi'> (radial: plus l(l+1)/(2 m r^2) and weight r^2; a mass m(x) that
+ * depends on the coordinate goes inside the integral, BenDaniel & Duke, Phys. Rev. 152, 683 (1966)) and <V>,
  * in one vector quadrature; the |psi'|^2 form needs no second derivative and is exact for
  * trials that vanish at the walls.
  */
@@ -44,7 +45,10 @@ export function placedExpectation(problem: VariationalProblem, domain: Domain, p
   const centre = Number.isFinite(domain.lo) ? [] : [probe.center];
   const splits = splitPoints(domain, [...potentialBreaks, ...trialBreaks.points, ...centre]);
   const l2 = problem.angularMomentum * (problem.angularMomentum + 1);
-  const integrand = domain.radial
+  const profile = problem.massProfile;
+  const integrand = profile
+    ? massProfileIntegrand(problem, profile, domain.radial, l2)
+    : domain.radial
     ? (r: number, out: Float64Array) => {
         const R = trial.value(r);
         const dR = trial.d1(r);
@@ -65,11 +69,13 @@ export function placedExpectation(problem: VariationalProblem, domain: Domain, p
   const evaluations = trialBreaks.evaluations + result.evaluations;
   const [n, tk, v] = result.values;
   const norm = n;
-  const kinetic = tk / (2 * mass) / norm;
+  // With a position-dependent mass, 1/m(x) sits inside the kinetic integral already.
+  const twoMass = profile ? 2 : 2 * mass;
+  const kinetic = tk / twoMass / norm;
   const potentialEnergy = v / norm;
   const energy = kinetic + potentialEnergy;
   const [en, et, ev] = result.errorEstimates;
-  const errorEstimate = (et / (2 * mass) + ev + Math.abs(energy) * en) / Math.abs(norm);
+  const errorEstimate = (et / twoMass + ev + Math.abs(energy) * en) / Math.abs(norm);
   const failure = classifyFailure(result, probe);
   return {
     energy: failure ? Infinity : energy,
@@ -83,6 +89,19 @@ export function placedExpectation(problem: VariationalProblem, domain: Domain, p
     splits,
     partition: result.partition,
     evaluations,
+  };
+}
+
+/** The integrands of placedExpectation with the BenDaniel–Duke kinetic density |psi'|^2 / m(x) (radial: (r^2 |R'|^2 + l(l+1) |R|^2) / m(r)). */
+function massProfileIntegrand(problem: VariationalProblem, profile: MassProfile, radial: boolean, l2: number): (x: number, out: Float64Array) => void {
+  const { trial, potential } = problem;
+  return (x, out) => {
+    const psi = trial.value(x);
+    const dpsi = trial.d1(x);
+    const w = radial ? x * x : 1;
+    out[0] = w * psi * psi;
+    out[1] = (w * dpsi * dpsi + l2 * psi * psi) / profile.value(x);
+    out[2] = psi === 0 ? 0 : w * potential(x) * psi * psi;
   };
 }
 

@@ -16,6 +16,7 @@ export function gridReference(problem: ProblemBase, breakpoints: number[], hint:
     const grid = gridLevels({
       space: problem.box ? 'box' : problem.space,
       mass: problem.mass,
+      massProfile: problem.massProfile,
       potential: problem.potential,
       angularMomentum: problem.angularMomentum,
       box: problem.box ?? undefined,

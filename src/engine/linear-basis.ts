@@ -12,7 +12,7 @@ import type { BasisFunction, LinearBasis, ParameterSpec, ProblemBase } from './p
 import { integrateVector, type IntegrationResult, type IntegrationStatus } from './quadrature.ts';
 import { probeTrial } from './trial-probe.ts';
 
-export interface LinearBasisProblem extends Pick<ProblemBase, 'space' | 'box' | 'angularMomentum' | 'mass' | 'potential'> {
+export interface LinearBasisProblem extends Pick<ProblemBase, 'space' | 'box' | 'angularMomentum' | 'mass' | 'massProfile' | 'potential'> {
   basis: LinearBasis;
   /** Interior quadrature split points: kinks or steps of the potential and of the basis functions. */
   breakpoints: number[];
@@ -120,7 +120,7 @@ function validate(problem: LinearBasisProblem): void {
   const { basis, states, mass, angularMomentum } = problem;
   if (basis.functions.length === 0) throw new RangeError('solveLinearBasis: the basis is empty');
   if (!Number.isInteger(states) || states < 1) throw new RangeError(`solveLinearBasis: states must be a positive integer, got ${states}`);
-  if (!(mass > 0) || !Number.isFinite(mass)) throw new RangeError(`solveLinearBasis: mass must be positive and finite, got ${mass}`);
+  if (!problem.massProfile && (!(mass > 0) || !Number.isFinite(mass))) throw new RangeError(`solveLinearBasis: mass must be positive and finite, got ${mass}`);
   if (!Number.isInteger(angularMomentum) || angularMomentum < 0) {
     throw new RangeError(`solveLinearBasis: angularMomentum must be a non-negative integer, got ${angularMomentum}`);
   }
@@ -171,7 +171,7 @@ export function solveLinearBasis(
   if (wall) return failed('hard-wall', wall);
 
   const context: QuadratureContext = {
-    potential, radial: domain.radial, l2: domain.radial ? problem.angularMomentum * (problem.angularMomentum + 1) : 0,
+    potential, inverseMass: problem.massProfile ? inverseOf(problem.massProfile.value) : null, radial: domain.radial, l2: domain.radial ? problem.angularMomentum * (problem.angularMomentum + 1) : 0,
     splits, scale: probe.scale, relTol: settings.relTol, maxIntervals: settings.maxIntervals,
   };
   const integrals = integrateMatrixElements(functions, context);
@@ -187,6 +187,8 @@ export function solveLinearBasis(
   }
   const pairs = (n * (n + 1)) / 2;
   const { values: val, errorEstimates: err } = integrals;
+  // With a position-dependent mass, 1/m(x) sits inside the kinetic integrals already.
+  const twoMass = problem.massProfile ? 2 : 2 * mass;
   const s = square(n);
   const k = square(n);
   const vm = square(n);
@@ -197,11 +199,11 @@ export function solveLinearBasis(
   for (let i = 0; i < n; i++) {
     for (let j = i; j < n; j++) {
       s[i][j] = s[j][i] = val[index];
-      k[i][j] = k[j][i] = val[pairs + index] / (2 * mass);
+      k[i][j] = k[j][i] = val[pairs + index] / twoMass;
       vm[i][j] = vm[j][i] = val[2 * pairs + index];
       h[i][j] = h[j][i] = k[i][j] + vm[i][j];
       sError[i][j] = sError[j][i] = err[index];
-      hError[i][j] = hError[j][i] = err[pairs + index] / (2 * mass) + err[2 * pairs + index];
+      hError[i][j] = hError[j][i] = err[pairs + index] / twoMass + err[2 * pairs + index];
       index++;
     }
   }
@@ -255,6 +257,8 @@ export function solveLinearBasis(
   return { ...empty, ...common, levels, warning: warnings.length > 0 ? warnings.join('; ') : null };
 }
 
+const inverseOf = (mass: (x: number) => number) => (x: number) => 1 / mass(x);
+
 /**
  * The overlap matrix's conditioning in words: its condition number when finite, else "numerically singular", and
  * with dropped directions the condition number of the kept ones, which is what the levels were solved with.
@@ -294,6 +298,8 @@ function wallViolation(functions: BasisFunction[], domain: Domain, peak: number,
 
 interface QuadratureContext {
   potential: (x: number) => number;
+  /** 1/m(x) for a position-dependent mass (BenDaniel–Duke kinetic density phi_i' phi_j' / m), null for a constant one. */
+  inverseMass: ((x: number) => number) | null;
   radial: boolean;
   l2: number;
   splits: number[];
@@ -311,7 +317,7 @@ function integrateMatrixElements(functions: BasisFunction[], context: Quadrature
   const pairs = (n * (n + 1)) / 2;
   const values = new Float64Array(n);
   const slopes = new Float64Array(n);
-  const { potential, radial, l2 } = context;
+  const { potential, inverseMass, radial, l2 } = context;
   const integrand = (x: number, out: Float64Array) => {
     for (let i = 0; i < n; i++) {
       values[i] = functions[i].value(x);
@@ -319,12 +325,13 @@ function integrateMatrixElements(functions: BasisFunction[], context: Quadrature
     }
     const w = radial ? x * x : 1;
     const v = potential(x);
+    const overMass = inverseMass ? inverseMass(x) : 1;
     let k = 0;
     for (let i = 0; i < n; i++) {
       for (let j = i; j < n; j++) {
         const product = values[i] * values[j];
         out[k] = w * product;
-        out[pairs + k] = w * slopes[i] * slopes[j] + l2 * product;
+        out[pairs + k] = inverseMass ? (w * slopes[i] * slopes[j] + l2 * product) * overMass : w * slopes[i] * slopes[j] + l2 * product;
         // Far out the functions underflow to 0 where V may overflow (a Morse wall): the product is 0, not NaN.
         out[2 * pairs + k] = product === 0 ? 0 : w * v * product;
         k++;

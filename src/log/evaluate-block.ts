@@ -28,7 +28,8 @@ export function evaluateBlock(file: string, entry: BlockEntry): BlockResult {
     space: spec.space,
     box: spec.box,
     angularMomentum: spec.angularMomentum,
-    mass: spec.mass,
+    mass: compiled.block.mass,
+    massProfile: compiled.block.massProfile,
     potential: compiled.block.potential,
     potentialSwitches: compiled.block.potentialSwitches,
     parameters: spec.varied,
@@ -54,7 +55,8 @@ export function evaluateBlock(file: string, entry: BlockEntry): BlockResult {
     space: spec.space,
     box: spec.box,
     angularMomentum: spec.angularMomentum,
-    mass: spec.mass,
+    mass: trees.mass ? null : compiled.block.mass,
+    massTex: trees.mass?.toTex() ?? null,
     coordinate: trees.coordinate,
     lengthUnit: 'bohr',
     potentialTex: trees.potential.toTex(),
@@ -81,7 +83,9 @@ function toBlockResult(file: string, spec: BlockSpec, inputs: BlockInputs, engin
           .map((c) =>
             c.field === 'potential'
               ? { file, line: spec.potential.line, block: spec.id, field: 'potential', message: c.detail }
-              : { file, line: (spec.trial ?? spec.basis![0]).line, block: spec.id, field: spec.trial ? 'trial' : 'basis', message: c.detail },
+              : c.field === 'mass'
+                ? { file, line: typeof spec.mass === 'number' ? spec.line : spec.mass.line, block: spec.id, field: 'mass', message: c.detail }
+                : { file, line: (spec.trial ?? spec.basis![0]).line, block: spec.id, field: spec.trial ? 'trial' : 'basis', message: c.detail },
           ) : [];
   return {
     id: spec.id,

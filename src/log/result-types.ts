@@ -15,7 +15,10 @@ export interface BlockInputs {
   space: string;
   box: [number, number] | null;
   angularMomentum: number;
-  mass: number;
+  /** The constant mass (electron masses), or null when it depends on the coordinate (see massTex). */
+  mass: number | null;
+  /** A position-dependent mass typeset, or null for a constant one. */
+  massTex: string | null;
   coordinate: 'x' | 'r';
   /** The unit lengths are given in: bohr in atomic units, the block's own in quantity mode. */
   lengthUnit: string;

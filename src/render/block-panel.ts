@@ -1,7 +1,7 @@
 import katex from 'katex';
 import type { LastCommit } from '../log/git-audit.ts';
 import type { Provenance } from '../log/provenance.ts';
-import type { BlockResult } from '../log/result-types.ts';
+import type { BlockInputs, BlockResult } from '../log/result-types.ts';
 import { escapeHtml, formatNumber } from './html.ts';
 import { renderPlots } from './plots.ts';
 
@@ -53,10 +53,11 @@ export function renderBlockPanel(result: BlockResult, context: PanelContext): st
 function renderInputs(result: BlockResult): string {
   const inputs = result.inputs!;
   const q = inputs.coordinate;
-  const kinetic = inputs.space === 'radial' ? `-\\frac{\\hbar^2}{2m}\\frac{1}{r^2}\\frac{d}{dr}r^2\\frac{d}{dr}${inputs.angularMomentum ? `+\\frac{${inputs.angularMomentum * (inputs.angularMomentum + 1)}\\hbar^2}{2m r^2}` : ''}` : `-\\frac{\\hbar^2}{2m}\\frac{d^2}{d${q}^2}`;
+  const kinetic = inputs.massTex === null ? constantMassKinetic(inputs) : profileKinetic(inputs);
+  const massTex = inputs.massTex === null ? `m = ${inputs.mass}` : `m(${q}) = ${inputs.massTex}`;
   const where = inputs.box ? `${q} \\in [${inputs.box[0]}, ${inputs.box[1]}]` : inputs.space === 'line' ? `${q} \\in \\mathbb{R}` : `${q} \\ge 0`;
   const rows = [
-    `<div>${tex(`H = ${kinetic} + ${inputs.potentialTex}, \\quad ${where}, \\quad m = ${inputs.mass}`, true)}</div>`,
+    `<div>${tex(`H = ${kinetic} + ${inputs.potentialTex}, \\quad ${where}, \\quad ${massTex}`, true)}</div>`,
     inputs.trialTex !== null
       ? `<div>${tex(`${inputs.space === 'radial' ? 'R' : '\\psi'}(${q}) = ${inputs.trialTex}`, true)}</div>`
       : `<div>Basis (linear variational method, ${result.states.length} level${result.states.length === 1 ? '' : 's'} reported):${tex(`${inputs.space === 'radial' ? 'R' : '\\psi'}(${q}) = \\sum_i c_i \\phi_i(${q})`, true)}<ol start="0" class="gw-basis">${(inputs.basisTex ?? []).map((b) => `<li>${tex(`\\phi = ${b}`)}</li>`).join('')}</ol></div>`,
@@ -68,6 +69,22 @@ function renderInputs(result: BlockResult): string {
   if (ranges) rows.push(`<p>Varied: ${ranges}</p>`);
   if (constants) rows.push(`<p>Constants: ${constants}</p>`);
   return `<div class="gw-inputs">${rows.join('\n')}</div>`;
+}
+
+function constantMassKinetic(inputs: BlockInputs): string {
+  const l = inputs.angularMomentum;
+  return inputs.space === 'radial'
+    ? `-\\frac{\\hbar^2}{2m}\\frac{1}{r^2}\\frac{d}{dr}r^2\\frac{d}{dr}${l ? `+\\frac{${l * (l + 1)}\\hbar^2}{2m r^2}` : ''}`
+    : `-\\frac{\\hbar^2}{2m}\\frac{d^2}{d${inputs.coordinate}^2}`;
+}
+
+/** The BenDaniel–Duke kinetic operator of a position-dependent mass. */
+function profileKinetic(inputs: BlockInputs): string {
+  const l = inputs.angularMomentum;
+  const q = inputs.coordinate;
+  return inputs.space === 'radial'
+    ? `-\\frac{\\hbar^2}{2}\\frac{1}{r^2}\\frac{d}{dr}\\frac{r^2}{m(r)}\\frac{d}{dr}${l ? `+\\frac{${l * (l + 1)}\\hbar^2}{2m(r) r^2}` : ''}`
+    : `-\\frac{\\hbar^2}{2}\\frac{d}{d${q}}\\frac{1}{m(${q})}\\frac{d}{d${q}}`;
 }
 
 function renderResults(result: BlockResult): string {

@@ -115,7 +115,8 @@ function quantityFields(raw: RawBlock): Array<[Path, number | string]> {
 
 /** A block whose numeric fields all hold plain numbers (atomic units; quantityFields has checked them). */
 type Numeric<T> = T extends QuantityText ? never : T extends object ? { [K in keyof T]: Numeric<T[K]> } : T;
-type AtomicBlock = Numeric<RawBlock>;
+// The mass may be text in atomic units too: an expression of the coordinate.
+type AtomicBlock = Omit<Numeric<RawBlock>, 'mass'> & Pick<RawBlock, 'mass'>;
 
 /** The quantity-mode block with every number kept as its written text and line, for the units layer to read. */
 function quantitySource(raw: RawBlock & { units: Record<string, string> }, line: number, doc: Document, lineOf: (path: Path) => number): QuantityBlockSource {
@@ -171,8 +172,12 @@ function meaningProblems(raw: RawBlock): Array<[(string | number)[], string]> {
   const found: Array<[(string | number)[], string]> = [];
   const quantityMode = isQuantityMode(raw);
   if (!quantityMode) {
+    const coordinate = raw.space === 'radial' ? 'r' : 'x';
     for (const [path, value] of quantityFields(raw)) {
-      if (typeof value === 'string') found.push([path, `must be a number in atomic units; ${JSON.stringify(value)} is text (a quantity with a unit needs quantity mode: units: { length: nm, energy: meV })`]);
+      // Text under mass that names the coordinate is a position-dependent mass, read by compileBlock.
+      if (typeof value !== 'string' || (path[0] === 'mass' && namesCoordinate(value, coordinate))) continue;
+      const alternative = path[0] === 'mass' ? ` (or an expression of the coordinate ${coordinate}, for a mass that depends on it)` : '';
+      found.push([path, `must be a number in atomic units${alternative}; ${JSON.stringify(value)} is text (a quantity with a unit needs quantity mode: units: { length: nm, energy: meV })`]);
     }
   }
   if (raw.trial === undefined && raw.basis === undefined) found.push([['trial'], 'the block needs a trial function (trial) or a basis (basis)']);
@@ -210,6 +215,11 @@ function meaningProblems(raw: RawBlock): Array<[(string | number)[], string]> {
   return found;
 }
 
+/** Whether the text holds the coordinate as a name of its own (not inside exp or max). */
+function namesCoordinate(text: string, coordinate: 'x' | 'r'): boolean {
+  return new RegExp(`(^|[^A-Za-z0-9_])${coordinate}([^A-Za-z0-9_]|$)`).test(text);
+}
+
 function toSpec(raw: AtomicBlock, line: number, doc: Document, lineOf: (path: (string | number)[]) => number): BlockSpec {
   const claimed = (path: (string | number)[], value: number, tolerance?: number, unitFraction: 0.5 | 1 = 0.5): Claimed => ({
     value,
@@ -233,7 +243,7 @@ function toSpec(raw: AtomicBlock, line: number, doc: Document, lineOf: (path: (s
     space: raw.space ?? 'line',
     box: raw.box ?? null,
     angularMomentum: raw['angular-momentum'] ?? 0,
-    mass: raw.mass ?? 1,
+    mass: typeof raw.mass === 'string' ? { text: raw.mass, line: lineOf(['mass']) } : (raw.mass ?? 1),
     constants: raw.constants ?? {},
     ...expressions(raw, lineOf),
     varied,

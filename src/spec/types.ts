@@ -52,7 +52,11 @@ export interface BlockSpec {
   space: Space;
   box: [number, number] | null;
   angularMomentum: number;
-  mass: number;
+  /**
+   * The mass in electron masses: a number, or an expression of the coordinate (in bohr) for a position-dependent
+   * mass (heterostructures), compiled by compileBlock; in quantity mode its units are bound in `constants`.
+   */
+  mass: number | SourceText;
   constants: Record<string, number>;
   potential: SourceText;
   /** Exactly one of trial and basis is given. */

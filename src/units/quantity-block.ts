@@ -1,4 +1,5 @@
 import type { BlockSpec, Claimed, SourceText, Space, SpecProblem } from '../spec/types.ts';
+import { parse } from 'mathjs';
 import { dependsOn } from '../expr/differentiate.ts';
 import type { DimensionScope } from './check-dimensions.ts';
 import { ANY, ENERGY, LENGTH, MASS, describeDimension, isDimensionless, sameDimension, unify, type Dimension, type DimensionOrAny } from './dimension.ts';
@@ -81,8 +82,10 @@ export function convertQuantityBlock(file: string, block: QuantityBlockSource): 
   reportEnergy?.constants.forEach((name) => reader.relied.add(name));
 
   // A bare mass counts electron masses, as in atomic units.
-  let mass = 1;
-  if (block.mass) {
+  let mass: BlockSpec['mass'] = 1;
+  const coordinate = block.space === 'radial' ? 'r' : 'x';
+  const massProfile = block.mass && dependsOnCoordinate(block.mass.text, coordinate) ? block.mass : null;
+  if (block.mass && !massProfile) {
     const m = reader.quantity('mass', block.mass, MASS, ELECTRON_MASS);
     if (m && !(m.atomic > 0)) reader.complain('mass', block.mass.line, `mass must be positive, not ${block.mass.text}`);
     else if (m) mass = m.atomic;
@@ -90,7 +93,7 @@ export function convertQuantityBlock(file: string, block: QuantityBlockSource): 
 
   const scope: { variables: Record<string, DimensionOrAny>; constants: Record<string, { dimension: DimensionOrAny; atomic: number }> } = {
     variables: { [block.space === 'radial' ? 'r' : 'x']: LENGTH },
-    constants: { ...QUANTITY_SCOPE.constants, mass: { dimension: MASS, atomic: mass } },
+    constants: { ...QUANTITY_SCOPE.constants, ...(massProfile || typeof mass !== 'number' ? {} : { mass: { dimension: MASS, atomic: mass } }) },
   };
   const declared: Record<string, number> = {};
   const fixed: Record<string, number> = {};
@@ -133,7 +136,14 @@ export function convertQuantityBlock(file: string, block: QuantityBlockSource): 
     else if (left && right) reader.complain('box', block.box[0].line, `box [${block.box[0].text}, ${block.box[1].text}] must have its left wall below its right wall`);
   }
 
-  const bound = checkExpressions(reader, block, scope);
+  const bound = checkExpressions(reader, block, scope, massProfile !== null);
+  if (massProfile) {
+    const profileBound = checkMassProfile(reader, massProfile, scope, block.varied.map((p) => p.name));
+    if (profileBound) {
+      Object.assign(bound, profileBound);
+      mass = { text: massProfile.text, line: massProfile.line };
+    }
+  }
 
   const readEnergy = (field: string, source: QuantitySource) => reader.energy(field, source, blockEnergy);
   const toleranceOf = (field: string, source: QuantitySource | null) => (source ? { field, source } : null);
@@ -200,7 +210,7 @@ export function convertQuantityBlock(file: string, block: QuantityBlockSource): 
 }
 
 /** Checks the potential (an energy) and the trial or basis once, before any numerics; returns the mathjs names they use. */
-function checkExpressions(reader: FieldReader, block: QuantityBlockSource, scope: DimensionScope): Record<string, number> {
+function checkExpressions(reader: FieldReader, block: QuantityBlockSource, scope: DimensionScope, massVaries: boolean): Record<string, number> {
   const bound: Record<string, number> = {};
   const fields: Array<[string, SourceText]> = [['potential', block.potential]];
   if (block.trial) fields.push(['trial', block.trial]);
@@ -208,7 +218,8 @@ function checkExpressions(reader: FieldReader, block: QuantityBlockSource, scope
   for (const [field, source] of fields) {
     const analysed = analyseExpression(source.text, scope);
     if (!analysed.ok) {
-      reader.complain(field, source.line, analysed.message);
+      const unbound = massVaries && analysed.token === 'mass';
+      reader.complain(field, source.line, unbound ? 'the mass depends on the coordinate in this block, so the name mass has no single value; write the mass it should stand for' : analysed.message);
       continue;
     }
     if (field === 'potential' && analysed.dimension !== ANY && !sameDimension(analysed.dimension, ENERGY)) {
@@ -219,6 +230,41 @@ function checkExpressions(reader: FieldReader, block: QuantityBlockSource, scope
     reader.rely(analysed.physical.values());
     for (const [name, p] of analysed.physical) bound[name] = p.atomic;
   }
+  return bound;
+}
+
+/** Whether the mass as written names the coordinate (a position-dependent mass); unreadable text is left to the quantity reader. */
+function dependsOnCoordinate(text: string, coordinate: string): boolean {
+  try {
+    return dependsOn(parse(text), coordinate);
+  } catch {
+    return false;
+  }
+}
+
+/**
+ * Checks a mass written as an expression of the coordinate: readable, free of varied parameters, and a mass (a bare
+ * number counts electron masses, as for a constant mass). Returns the mathjs names it binds, or null after complaining.
+ */
+function checkMassProfile(reader: FieldReader, source: QuantitySource, scope: DimensionScope, varied: string[]): Record<string, number> | null {
+  const analysed = analyseExpression(source.text, scope);
+  if (!analysed.ok) {
+    reader.complain('mass', source.line, analysed.message);
+    return null;
+  }
+  const parameter = varied.find((name) => dependsOn(analysed.tree, name));
+  if (parameter) {
+    reader.complain('mass', source.line, `the mass may not depend on the varied parameter ${parameter}; hold it fixed (a plain value under parameters) or move it to constants`);
+    return null;
+  }
+  const dimension = analysed.dimension;
+  if (dimension !== ANY && !sameDimension(dimension, MASS) && !isDimensionless(dimension)) {
+    reader.complain('mass', source.line, `the mass must be a mass (or a number of electron masses), but ${analysed.tree.toString()} is ${describeDimension(dimension)}`);
+    return null;
+  }
+  reader.rely(analysed.physical.values());
+  const bound: Record<string, number> = {};
+  for (const [name, p] of analysed.physical) bound[name] = p.atomic;
   return bound;
 }
 

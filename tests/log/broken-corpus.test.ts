@@ -100,6 +100,14 @@ const EXPECTED: Record<string, Expected> = {
   'trial-without-coordinate': { blocks: [invalid('flat-w8', 'the trial does not depend on the coordinate x', on('trial', 'trial: exp(-a)'))] },
   'wrong-coordinate': { blocks: [invalid('radial-w9', 'the coordinate of space radial is r', on('trial', 'trial: exp(-a*x)'))] },
   'varied-parameter-unused': { blocks: [invalid('unused-w10', 'parameter b is varied but the trial does not use it', on('parameters.b', '  b: {'))] },
+  // RECORD-FORMAT.md, "Position-dependent mass": positive where the state lives, fixed during the search, a mass.
+  'mass-profile-faults': {
+    blocks: [
+      invalid('negative-j4', 'the mass is -0.092 electron masses', on('mass', 'mass: "x < 1 ? 0.067 : -0.092"')),
+      invalid('varied-j4', 'the mass may not depend on the varied parameter a', on('mass', 'mass: "x < 0 ? 0.067 : a"')),
+      invalid('length-j4', 'the mass must be a mass', on('mass', 'mass: "x < 0 nm')),
+    ],
+  },
   'potential-uses-varied-parameter': { blocks: [invalid('moving-w11', 'the potential may not depend on the varied parameter a', on('potential', 'potential: a*x^2'))] },
   // Ranges, spaces, boxes
   'range-min-above-max': { blocks: [invalid('flipped-s1', 'max (2) must be larger than min (5)', on('parameters.a.max', '  a: {'))] },
@@ -205,9 +213,9 @@ describe('the broken-record corpus', () => {
     const statuses = names.flatMap((name) => result(name).blocks.map((b) => b.status));
     for (const status of statuses) expect(STATUS_ORDER).toContain(status);
     const count = (s: string) => statuses.filter((t) => t === s).length;
-    // 67 blocks: 58 invalid, 6 healthy (confirmed), one each of disputed, below-reference, unsettled.
+    // 70 blocks: 61 invalid, 6 healthy (confirmed), one each of disputed, below-reference, unsettled.
     expect({ invalid: count('invalid'), 'below-reference': count('below-reference'), unsettled: count('unsettled'), disputed: count('disputed'), confirmed: count('confirmed') }).toEqual({
-      invalid: 58,
+      invalid: 61,
       'below-reference': 1,
       unsettled: 1,
       disputed: 1,

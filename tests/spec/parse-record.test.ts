@@ -181,6 +181,16 @@ describe('parseRecord: blocks that are refused', () => {
     expect(p[0].line).toBe(lineWhere(text, (l) => l.startsWith('mass:')));
   });
 
+  it('a mass that names the coordinate is kept as an expression with its line; other text stays refused', () => {
+    const text = record('id: w1\nmass: "x < 0 ? 0.067 : 0.092"\npotential: x^2/2\ntrial: exp(-x^2)\n');
+    expect(spec(parseRecord(FILE, text).blocks[0]).mass).toEqual({ text: 'x < 0 ? 0.067 : 0.092', line: lineWhere(text, (l) => l.startsWith('mass:')) });
+    // exp names no coordinate of its own: a word that merely contains x is not an expression of x.
+    const p = problems(one(minimal('mass: "exp(1)"\n')));
+    expect(p[0].message).toMatch(/must be a number in atomic units \(or an expression of the coordinate x/);
+    // On the radial space the coordinate is r.
+    expect(problems(one(minimal('space: radial\nmass: "x < 1 ? 1 : 2"\n')))[0].field).toBe('mass');
+  });
+
   it('a negative mass is refused as not positive', () => {
     const p = problems(one('id: w2\nmass: -1\npotential: x^2/2\ntrial: exp(-x^2)\n'));
     expect(p).toHaveLength(1);

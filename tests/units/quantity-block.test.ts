@@ -261,3 +261,26 @@ describe('blocks whose dimensions disagree are refused, naming the term and the 
     ]);
   });
 });
+
+describe('a mass that depends on the coordinate in quantity mode', () => {
+  it('passes the expression on with its line and binds the units it names to their atomic values', () => {
+    const result = converted(oscillator({ mass: at('x < 0 nm ? 0.067 electronMass : 0.092 electronMass', 14), potential: at('0.5 meV nm^-2 x^2', 17) }));
+    expect(result.spec.mass).toEqual({ text: 'x < 0 nm ? 0.067 electronMass : 0.092 electronMass', line: 14 });
+    // 1 nm = 18.897261246 bohr (NIST CODATA 2018 Bohr radius 5.29177210903e-11 m); electronMass is the atomic unit of mass.
+    expect(relative(result.bound.nm, 1 / 0.0529177210903)).toBeLessThan(1e-9);
+    expect(result.bound.electronMass).toBe(1);
+  });
+
+  it('refuses one that is not a mass, one that depends on a varied parameter, and the name mass elsewhere', () => {
+    const potential = at('0.5 meV nm^-2 x^2', 17);
+    const length = problemsOf(oscillator({ mass: at('x < 0 nm ? 0.067 nm : 0.092 nm', 14), potential }));
+    expect(length[0]).toMatchObject({ field: 'mass', line: 14 });
+    expect(length[0].message).toMatch(/the mass must be a mass \(or a number of electron masses\), but .* is a length/);
+    const varied = problemsOf(oscillator({ mass: at('x < 0 nm ? 0.067 electronMass : 0.092 electronMass * a * (1 nm^2)', 14), potential }));
+    expect(varied[0].message).toMatch(/may not depend on the varied parameter a/);
+    // The oscillator's potential uses the name mass, which has no single value once the mass depends on x.
+    const named = problemsOf(oscillator({ mass: at('x < 0 nm ? 0.067 electronMass : 0.092 electronMass', 14) }));
+    expect(named[0]).toMatchObject({ field: 'potential', line: 17 });
+    expect(named[0].message).toMatch(/the name mass has no single value/);
+  });
+});
