@@ -79,7 +79,10 @@ const STATUS_RANK: Record<IntegrationStatus, number> = { converged: 0, roundoff:
  * as in Davis & Rabinowitz, Methods of Numerical Integration, 1984, §5.6). Each inner integral is
  * itself adaptive, so a point singularity on a split line (a nucleus at z = z0 on the axis rho = 0) is
  * refined only where it is; every inner run's error estimate is integrated along by the outer run and
- * added to the outer estimate, and each of the D levels gets 1/D of the tolerance.
+ * added to the outer estimate. Each of the D levels gets 1/(D+1) of the tolerance and the far tails,
+ * where inner runs meet an absolute tolerance, the last share; the estimate is the sum actually met.
+ * Singularities inside the region, off the split lines, are not this routine's to place: the axial
+ * half-plane goes through integrateAxial, which puts each nucleus at the origin of polar coordinates.
  */
 export function integrateProduct(integrand: ProductIntegrand, components: number, axes: CubatureAxis[], options: CubatureOptions = {}): CubatureResult {
   const dims = axes.length;
