@@ -156,7 +156,7 @@ describe('Cartesian energy integrands', () => {
     const cases = [
       { widths: [0.7, 0.2], masses: [1, 3], omegas: [1, 0.5] },
       { widths: [0.5, 1.2, 0.9], masses: [1, 2, 0.5], omegas: [1, 1.2, 4] },
-      { widths: [0.5, 1.2, 1], masses: [1, 2, 0.5], omegas: [1, 1.2, 4] }, // the exact ground state
+      { widths: [0.5, 1.2], masses: [1, 2], omegas: [1, 1.2] }, // the exact ground state
     ];
     for (const { widths, masses, omegas } of cases) {
       const trial = oscillator(widths, masses, omegas);
@@ -166,7 +166,7 @@ describe('Cartesian energy integrands', () => {
       expect(relativeError(e.energy, exact)).toBeLessThan(1e-9);
       expect(Math.abs(e.energy - exact)).toBeLessThanOrEqual(e.errorEstimate);
       const variance = widths.reduce((sum, a, k) => sum + (0.5 * masses[k] * omegas[k] ** 2 - (2 * a * a) / masses[k]) ** 2 / (8 * a * a), 0);
-      const result = integrateProduct(cartesianVarianceIntegrand(trial, e.energy), 1, axes, { absTol: varianceAbsTol(e) });
+      const result = integrateProduct(cartesianVarianceIntegrand(trial, e.energy), 1, axes, { absTol: varianceAbsTol(e), relTol: 1e-9 });
       expect(result.converged).toBe(true);
       expect(Math.abs(result.values[0] / e.norm - variance)).toBeLessThan(1e-8 * Math.max(variance, e.energy * e.energy));
     }
