@@ -2,7 +2,7 @@
 // 1/r^2 at a centre (|(H - E) psi|^2 of a trial without the cusp) costs millions of calls; in polar
 // coordinates about the centre, rho drho dz = r dr dtheta and the same integrand is smooth.
 import { RHO, Z } from './energy-integrands.ts';
-import { integrateProduct, type CubatureAxis, type CubaturePartition, type CubatureResult, type ProductIntegrand } from './integrate-product.ts';
+import { integrateProduct, STATUS_RANK, type CubatureAxis, type CubaturePartition, type CubatureResult, type ProductIntegrand } from './integrate-product.ts';
 import type { IntegrationStatus } from '../quadrature.ts';
 
 export interface AxialOptions {
@@ -24,8 +24,6 @@ export interface AxialPartition {
 export interface AxialResult extends Omit<CubatureResult, 'partition'> {
   partition: AxialPartition | null;
 }
-
-const STATUS_RANK: Record<IntegrationStatus, number> = { converged: 0, roundoff: 1, 'interval-limit': 2, 'non-finite': 3 };
 
 /** Becke's cell function s(mu) = (1 - p(p(p(mu))))/2 with p(mu) = 3mu/2 - mu^3/2: 1 at mu = -1, 0 at mu = 1, flat at both. */
 function cell(mu: number): number {

@@ -71,7 +71,8 @@ export const CUBATURE_DEFAULTS = { relTol: 1e-10, absTol: 0, maxIntervals: 2000 
 /** A run that needed more than this many times the inner panels of the run it was started from starts the next one afresh (as in the 1-D search). */
 const CARRY_LIMIT = 4;
 
-const STATUS_RANK: Record<IntegrationStatus, number> = { converged: 0, roundoff: 1, 'interval-limit': 2, 'non-finite': 3 };
+/** How bad a failure is, to report the worst one met among many runs. */
+export const STATUS_RANK: Record<IntegrationStatus, number> = { converged: 0, roundoff: 1, 'interval-limit': 2, 'non-finite': 3 };
 
 /**
  * Iterated adaptive Gauss–Kronrod integration over a product region (QUADPACK's globally adaptive QAG/QAGI
