@@ -105,6 +105,27 @@ describe('axial energy integrands', () => {
     expect(Math.abs(e.potential + 0.25)).toBeLessThan(1e-10);
   });
 
+  it('give the energy of a polarised trial for hydrogen in a field along z', () => {
+    // psi = (1 + b z) e^{-r}, V = -1/r + F z: with int e^{-2r} = pi, int z^2 e^{-2r} = pi, H0 (z e^{-r}) = (1/r - 1/2) z e^{-r}
+    // and int z^2 e^{-2r}/r = pi/2 (closed forms), E(b) = (-1/2 + 2 b F)/(1 + b^2), whose minimum gives the
+    // polarisability 4 of this trial (e.g. Schiff, Quantum Mechanics, 3rd ed., §32; from memory).
+    const F = 0.05;
+    for (const b of [-0.1, 0.3]) {
+      const trial: AxialClosures = {
+        value: (p) => (1 + b * p[Z]) * Math.exp(-Math.hypot(p[RHO], p[Z])),
+        dRho: (p) => { const r = Math.hypot(p[RHO], p[Z]); return (-(1 + b * p[Z]) * p[RHO] / r) * Math.exp(-r); },
+        dZ: (p) => { const r = Math.hypot(p[RHO], p[Z]); return (b - (1 + b * p[Z]) * p[Z] / r) * Math.exp(-r); },
+        potential: (p) => -1 / Math.hypot(p[RHO], p[Z]) + F * p[Z],
+        mass: 1,
+        magnetic: 0,
+      };
+      const e = axialEnergyOf(axialEnergyIntegrand(trial), [0], 1);
+      const exact = (-0.5 + 2 * b * F) / (1 + b * b);
+      expect(relativeError(e.energy, exact)).toBeLessThan(1e-9);
+      expect(Math.abs(e.energy - exact)).toBeLessThanOrEqual(e.errorEstimate);
+    }
+  });
+
   it('give the LCAO energy of H2+ at R = 2 with two nuclei on the axis', () => {
     // psi = e^{-r_a} + e^{-r_b}, nuclei a distance R apart. Closed-form integrals of 1s orbitals
     // (Pauling & Wilson, Introduction to Quantum Mechanics, 1935, §42; Slater, Quantum Theory of
