@@ -16,7 +16,7 @@ export interface VarianceResult {
 /** A slope jump above this fraction of (peak amplitude / length scale) is a cusp; a smooth slope changes ~1e-7 of it over the probe step. */
 const CUSP_TOLERANCE = 1e-4;
 /** Variances below this fraction of E^2 are rounding noise: they are resolved only to that level. */
-const VARIANCE_FLOOR = 1e-14;
+export const VARIANCE_FLOOR = 1e-14;
 
 /**
  * The energy variance as ||(H - E) psi||^2 / ||psi||^2, which avoids the cancellation of
