@@ -30,7 +30,7 @@ export interface EngineResult {
   bounds: { upper: number | null; lower: number | null; weinstein: [number, number] | null; nextLevel: number | null };
   overlap: number | null;
   virial: Virial | null;
-  /** Why no virial ratio is given for a power-law potential (hard walls away from the origin); else null. */
+  /** Why no virial ratio is given for a power-law potential (hard walls away from the origin, a mass m(x)); else null. */
   virialNote: string | null;
   optimiser: MinimizeResult | null;
   checks: GradedCheck[];

@@ -68,7 +68,7 @@ export interface BlockResult {
   bounds: { upper: number | null; lower: number | null; weinstein: [number, number] | null };
   overlap: number | null;
   virial: { exponent: number; ratio: number } | null;
-  /** Why no virial ratio is given although the potential is a power law (hard walls away from the origin); else null. */
+  /** Why no virial ratio is given although the potential is a power law (hard walls away from the origin, a mass m(x)); else null. */
   virialNote: string | null;
   claim: { energy: number | null; tolerance: number | null; parameters: Record<string, { value: number; tolerance: number }> } | null;
   checks: Check[];
