@@ -3,7 +3,7 @@ import { splitPoints, type Domain } from './domain.ts';
 import { ATOMIC_DISPLAY, g, type ValueDisplay } from './format.ts';
 import type { MassProfile, VariationalProblem } from './problem.ts';
 import { integrateVector, type IntegrationResult, type Partition } from './quadrature.ts';
-import { probeTrial, type TrialProbe } from './trial-probe.ts';
+import { negligibleAt, probeTrial, type TrialProbe } from './trial-probe.ts';
 
 /** <H> of the trial at one parameter point, with the pieces it is made of and their error. */
 export interface Expectation {
@@ -48,10 +48,11 @@ export function placedExpectation(problem: VariationalProblem, domain: Domain, p
   const l2 = problem.angularMomentum * (problem.angularMomentum + 1);
   const profile = problem.massProfile;
   const integrand = profile
-    ? massProfileIntegrand(problem, profile, domain.radial, l2)
+    ? massProfileIntegrand(problem, profile, domain.radial, l2, probe)
     : domain.radial
     ? (r: number, out: Float64Array) => {
         const R = trial.value(r);
+        if (negligibleAt(probe, true, r, R)) return out.fill(0);
         const dR = trial.d1(r);
         const w = r * r;
         out[0] = w * R * R;
@@ -60,6 +61,7 @@ export function placedExpectation(problem: VariationalProblem, domain: Domain, p
       }
     : (x: number, out: Float64Array) => {
         const psi = trial.value(x);
+        if (negligibleAt(probe, false, x, psi)) return out.fill(0);
         const dpsi = trial.d1(x);
         out[0] = psi * psi;
         out[1] = dpsi * dpsi;
@@ -94,10 +96,11 @@ export function placedExpectation(problem: VariationalProblem, domain: Domain, p
 }
 
 /** The integrands of placedExpectation with the BenDaniel–Duke kinetic density |psi'|^2 / m(x) (radial: (r^2 |R'|^2 + l(l+1) |R|^2) / m(r)). */
-function massProfileIntegrand(problem: VariationalProblem, profile: MassProfile, radial: boolean, l2: number): (x: number, out: Float64Array) => void {
+function massProfileIntegrand(problem: VariationalProblem, profile: MassProfile, radial: boolean, l2: number, probe: TrialProbe): (x: number, out: Float64Array) => void {
   const { trial, potential } = problem;
   return (x, out) => {
     const psi = trial.value(x);
+    if (negligibleAt(probe, radial, x, psi)) return out.fill(0);
     const dpsi = trial.d1(x);
     const w = radial ? x * x : 1;
     out[0] = w * psi * psi;

@@ -3,6 +3,7 @@ import type { Expectation } from './expectation.ts';
 import { ATOMIC_DISPLAY, g } from './format.ts';
 import type { MassProfile, VariationalProblem } from './problem.ts';
 import { integrateVector } from './quadrature.ts';
+import { negligibleAt, type TrialProbe } from './trial-probe.ts';
 
 export interface VarianceResult {
   /** <H^2> - <H>^2, or null when it is infinite or could not be computed (see note). */
@@ -48,11 +49,11 @@ export function energyVariance(problem: VariationalProblem, domain: Domain, at: 
   }
   const l2 = problem.angularMomentum * (problem.angularMomentum + 1);
   const integrand = profile
-    ? massProfileIntegrand(problem, profile, domain.radial, l2, energy)
+    ? massProfileIntegrand(problem, profile, domain.radial, l2, energy, at.probe)
     : domain.radial
     ? (r: number, out: Float64Array) => {
         const R = trial.value(r);
-        if (R === 0) {
+        if (negligibleAt(at.probe, true, r, R)) {
           out[0] = 0;
           return;
         }
@@ -61,7 +62,7 @@ export function energyVariance(problem: VariationalProblem, domain: Domain, at: 
       }
     : (x: number, out: Float64Array) => {
         const psi = trial.value(x);
-        if (psi === 0) {
+        if (negligibleAt(at.probe, false, x, psi)) {
           out[0] = 0;
           return;
         }
@@ -87,11 +88,11 @@ export function energyVariance(problem: VariationalProblem, domain: Domain, at: 
  * |(H - E) psi|^2 (radial: times r^2) with the BenDaniel–Duke operator -(1/2) div(grad psi / m):
  * -(1/2) (psi''/m - m' psi'/m^2) on the line, -(1/2) ((R'' + 2R'/r)/m - m' R'/m^2) + l(l+1) R/(2 m r^2) radially.
  */
-function massProfileIntegrand(problem: VariationalProblem, profile: MassProfile, radial: boolean, l2: number, energy: number): (x: number, out: Float64Array) => void {
+function massProfileIntegrand(problem: VariationalProblem, profile: MassProfile, radial: boolean, l2: number, energy: number, probe: TrialProbe): (x: number, out: Float64Array) => void {
   const { trial, potential } = problem;
   return (x, out) => {
     const psi = trial.value(x);
-    if (psi === 0) {
+    if (negligibleAt(probe, radial, x, psi)) {
       out[0] = 0;
       return;
     }

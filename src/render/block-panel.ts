@@ -1,6 +1,7 @@
 import katex from 'katex';
 import type { LastCommit } from '../log/git-audit.ts';
 import type { Provenance } from '../log/provenance.ts';
+import { describeLevel } from '../engine/parity.ts';
 import type { BlockInputs, BlockResult } from '../log/result-types.ts';
 import { escapeHtml, formatNumber } from './html.ts';
 import { renderPlots } from './plots.ts';
@@ -103,8 +104,11 @@ function renderResults(result: BlockResult): string {
     row("Temple's lower bound", formatNumber(result.bounds.lower)),
     row("Weinstein's interval", result.bounds.weinstein ? `[${formatNumber(result.bounds.weinstein[0])}, ${formatNumber(result.bounds.weinstein[1])}]` : '—'),
   ];
+  // Which level the reference stands for, when it is not the ground level (a declared or an odd trial's symmetry, a level index).
+  const level = result.reference && (result.reference.level.symmetry !== null || result.reference.level.index > 0) ? describeLevel(result.reference.level) : null;
   if (result.reference) {
-    rows.push(row(`reference (${result.reference.method})`, `${formatNumber(result.reference.energy)}${result.reference.excited !== null ? `; next level ${formatNumber(result.reference.excited)}` : ''}`));
+    const next = level && result.reference.level.symmetry ? `next ${result.reference.level.symmetry} level` : 'next level';
+    rows.push(row(`reference (${result.reference.method}${level ? `, ${level}` : ''})`, `${formatNumber(result.reference.energy)}${result.reference.excited !== null ? `; ${next} ${formatNumber(result.reference.excited)}` : ''}`));
     if (result.reference.published) rows.push(row('published', `${formatNumber(result.reference.published.energy)} — ${escapeHtml(result.reference.published.source)}`));
   }
   if (result.states.length > 1) {
@@ -114,10 +118,11 @@ function renderResults(result: BlockResult): string {
     });
   }
   if (result.basis) rows.push(row('overlap matrix', `${result.basis.functions} functions, ${result.basis.kept} kept; ${escapeHtml(result.basis.conditioning)}`));
-  if (result.errors.vsGrid !== null) rows.push(row('relative error against the grid', formatNumber(result.errors.vsGrid, 3)));
+  if (result.errors.vsGrid !== null) rows.push(row(`relative error against the grid${level ? ` (${level})` : ''}`, formatNumber(result.errors.vsGrid, 3)));
   if (result.errors.vsPublished !== null) rows.push(row('relative error against the published value', formatNumber(result.errors.vsPublished, 3)));
-  if (result.overlap !== null) rows.push(row('overlap with the grid ground state', formatNumber(result.overlap, 8)));
+  if (result.overlap !== null) rows.push(row(`overlap with the grid ${level ? `state of the ${level}` : 'ground state'}`, formatNumber(result.overlap, 8)));
   if (result.virial) rows.push(row(`virial ratio ${tex(`2\\langle T\\rangle / (${result.virial.exponent}\\langle V\\rangle)`)}`, formatNumber(result.virial.ratio, 8)));
+  else if (result.virialNote) rows.push(row('virial ratio', escapeHtml(result.virialNote)));
   if (result.claim?.energy !== null && result.claim) rows.push(row('claimed energy', `${formatNumber(result.claim.energy)} ± ${formatNumber(result.claim.tolerance, 3)}`));
   return `<table class="gw-results"><caption>Recomputed values (${escapeHtml(unit)}); model estimates, not a substitute for the group's validated procedures</caption><tbody>${rows.join('')}</tbody></table>`;
 }

@@ -54,6 +54,17 @@ export interface QuantityMode {
   bound: string[];
 }
 
+/**
+ * The level a single trial approximates, as the block declares it: its parity under x -> -x (even
+ * potentials on the line) and its 0-based index among the levels of that parity (or among all levels).
+ */
+export interface DeclaredLevel {
+  symmetry: 'even' | 'odd' | null;
+  index: number;
+  /** Line of the symmetry field, or of level when symmetry is not given. */
+  line: number;
+}
+
 export interface BlockSpec {
   id: string;
   caption: string | null;
@@ -74,6 +85,8 @@ export interface BlockSpec {
   /** The linear variational method: the functions whose span is searched, and how many levels to report. */
   basis: SourceText[] | null;
   states: number;
+  /** Given only when the block declares `symmetry` or `level` (so the input hash of other blocks stays as it was). */
+  level?: DeclaredLevel;
   varied: VariedParameter[];
   fixed: Record<string, number>;
   reference: {

@@ -29,6 +29,7 @@ export interface QuantityBlockSource {
   trial: SourceText | null;
   basis: SourceText[] | null;
   states: number;
+  level?: BlockSpec['level'];
   varied: Array<{ name: string; start: QuantitySource; min: QuantitySource; max: QuantitySource; line: number }>;
   fixed: Record<string, QuantitySource>;
   reference: { solve: boolean; energy: QuantitySource | null; tolerance: QuantitySource | null; source: string | null };
@@ -204,6 +205,7 @@ export function convertQuantityBlock(file: string, block: QuantityBlockSource): 
       trial: block.trial,
       basis: block.basis,
       states: block.states,
+      ...(block.level ? { level: block.level } : {}),
       varied,
       fixed,
       reference,
