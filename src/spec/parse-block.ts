@@ -2,7 +2,7 @@ import { isScalar, LineCounter, parseDocument, type Document } from 'yaml';
 import type { ZodIssue } from 'zod';
 import { blockSchema, knownFields, RESERVED_NAMES, type QuantityText, type RawBlock } from './block-schema.ts';
 import type { FencedBlock } from './find-blocks.ts';
-import { coordinatesOf, spaceLabel, type BlockEntry, type BlockSpec, type Claimed, type SpecProblem } from './types.ts';
+import { coordinatesOf, isLineSpace, spaceLabel, type BlockEntry, type BlockSpec, type Claimed, type SpecProblem } from './types.ts';
 import { didYouMean } from './nearest-name.ts';
 import { writtenPrecision } from './written-precision.ts';
 import { locateYamlError } from './yaml-errors.ts';
@@ -191,7 +191,8 @@ function meaningProblems(raw: RawBlock): Array<[(string | number)[], string]> {
   for (const field of ['symmetry', 'level'] as const) {
     if (raw[field] !== undefined && raw.basis !== undefined) found.push([[field], `${field} goes with a single trial: a basis reports its lowest levels (states)`]);
   }
-  if (raw.symmetry !== undefined && space !== 'line') found.push([['symmetry'], `symmetry (parity under x -> -x) applies to space line only, not ${space}`]);
+  if (raw.symmetry !== undefined && space !== 'line') found.push([['symmetry'], `symmetry (parity under x -> -x) applies to space line only, not ${spaceLabel(space)}`]);
+  if (raw.level !== undefined && !isLineSpace(space)) found.push([['level'], `level is not yet available on ${spaceLabel(space)}: a block there is compared with the ground level`]);
   if (raw.box !== undefined) {
     if (space !== 'line') found.push([['box'], `box applies to space line only, not ${spaceLabel(space)}${typeof space === 'object' ? ' (give each coordinate its range [a, b] in the map)' : ''}`]);
     else if (typeof raw.box[0] === 'number' && typeof raw.box[1] === 'number' && !(raw.box[0] < raw.box[1])) found.push([['box'], `box [${raw.box[0]}, ${raw.box[1]}] must have its left wall below its right wall`]);
