@@ -1,26 +1,13 @@
-import { spawn } from 'node:child_process';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { performance } from 'node:perf_hooks';
 import { writeSyntheticLog } from '../scripts/make-synthetic-log.ts';
+import { summaryLine, timedCli } from './cli-run.ts';
 
-const CLI = new URL('../bin/groundwork.js', import.meta.url).pathname;
-
-/** Wall time of one `groundwork check log --json` as a user runs it (process start-up included), and its summary line. */
-function timedCheck(cwd: string): Promise<{ ms: number; summary: string }> {
-  return new Promise((resolve, reject) => {
-    const started = performance.now();
-    const child = spawn(process.execPath, [CLI, 'check', 'log', '--json'], { cwd, stdio: ['ignore', 'ignore', 'pipe'] });
-    let stderr = '';
-    child.stderr.on('data', (chunk) => (stderr += chunk));
-    child.on('error', reject);
-    child.on('close', () => {
-      const summary = stderr.split('\n').find((line) => line.startsWith('groundwork: '));
-      if (!summary) reject(new Error(`the check printed no summary line:\n${stderr}`));
-      else resolve({ ms: performance.now() - started, summary });
-    });
-  });
+/** Wall time of one `groundwork check log --json`, and its summary line. */
+async function timedCheck(cwd: string): Promise<{ ms: number; summary: string }> {
+  const { ms, stderr } = await timedCli(['check', 'log', '--json'], cwd);
+  return { ms, summary: summaryLine(stderr) };
 }
 
 /**

@@ -5,10 +5,12 @@ import { evaluateBlock } from '../src/log/evaluate-block.ts';
 import { parseRecord } from '../src/spec/parse-record.ts';
 import { closureNanoseconds } from './closure-floor.ts';
 import { benchSyntheticLog } from './log200.ts';
+import { benchStartup } from './startup.ts';
 
 /**
  * Evaluates every benchmark record repeatedly, then checks a synthetic 200-block log through the CLI
- * cold and cached, and prints one comparable JSON document (progress on stderr).
+ * cold and cached, times the command line's start-up (`startupMs`, `cachedOneFileMs`: see startup.ts),
+ * and prints one comparable JSON document (progress on stderr).
  * Usage: tsx bench/problems.ts [folder] [--problems-only]; the flag leaves out the synthetic log.
  *
  * Per single-trial problem, `floorMs` is the trial evaluations times the time of one evaluation of
@@ -25,7 +27,8 @@ const args = process.argv.slice(2);
 const problemsOnly = args.includes('--problems-only');
 const folder = args.find((a) => !a.startsWith('--')) ?? (existsSync(shared) ? shared : new URL('../tests/fixtures/problems', import.meta.url).pathname);
 const problems: Record<string, unknown> = {};
-for (const file of collectRecordFiles([folder]).files) {
+const records = collectRecordFiles([folder]).files;
+for (const file of records) {
   const record = parseRecord(file, readFileSync(file, 'utf8'));
   for (const entry of record.blocks) {
     const runs = Array.from({ length: WARM_UP + RUNS }, () => evaluateBlock(file, entry)).slice(WARM_UP);
@@ -53,5 +56,6 @@ for (const file of collectRecordFiles([folder]).files) {
     process.stderr.write(`${key}: ${last.status}\n`);
   }
 }
+const { startupMs, cachedOneFileMs } = await benchStartup(records[0]);
 const log200 = problemsOnly ? null : await benchSyntheticLog(200);
-process.stdout.write(JSON.stringify({ node: process.version, cores: os.availableParallelism(), problems, log200 }, null, 2) + '\n');
+process.stdout.write(JSON.stringify({ node: process.version, cores: os.availableParallelism(), startupMs, cachedOneFileMs, problems, log200 }, null, 2) + '\n');

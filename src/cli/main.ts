@@ -1,59 +1,96 @@
-import { checkLog, collectRecordFiles, type CheckStats } from '../log/check-log.ts';
-import { CONFIG_FILE, DEFAULTS, LogConfigError, loadLogConfig, type LogConfig } from '../log/log-config.ts';
+import type { CheckStats } from '../log/check-log.ts';
+import type { LogResult } from '../log/result-types.ts';
 import { TOOL_VERSION } from '../log/tool-version.ts';
-import { formatTable } from './format-table.ts';
+
+// Only the version is loaded up front: `--version` and `--help` must not pay for the record parser, the
+// configuration schema or the cache, which `check` imports when it runs.
 
 const OPTIONS = ['--json', '--recompute'];
 
-const USAGE = `groundwork ${TOOL_VERSION}
+/** Exit codes: every block confirmed; something checked is not; the check could not run at all. */
+export const EXIT = { confirmed: 0, notConfirmed: 1, couldNotRun: 2 } as const;
+
+/** Why a check could not run; `path` is the file or folder concerned, when there is one. */
+export interface RunError {
+  path: string | null;
+  message: string;
+}
+
+/** What `check --json` prints: the log's result and the reasons the check could not run (empty when it ran). */
+export type CheckOutput = LogResult & { errors: RunError[] };
+
+async function usage(): Promise<string> {
+  const { CONFIG_FILE, DEFAULTS } = await import('../log/log-config.ts');
+  return `groundwork ${TOOL_VERSION}
 
 usage: groundwork check [files or folders...] [--json] [--recompute]
 
   check        recompute every variational block of the records (default folder: content/records)
-  --json       print the machine-readable result instead of the table
+  --json       print the machine-readable result instead of the table (with an "errors" list)
   --recompute  evaluate every block again instead of taking stored results from the cache
 
-Blocks are evaluated in parallel worker threads and their results kept in ${DEFAULTS.cacheFolder}/;
-${CONFIG_FILE} in the working folder sets timeLimitSeconds, memoryLimitMb, workers and cacheFolder.
+Blocks are evaluated in parallel worker threads and their results kept in ${DEFAULTS.cacheFolder}/.
+The log root is the nearest folder holding ${CONFIG_FILE}, looked for from the folder of the
+paths checked upwards (the working folder when there is none); the file sets timeLimitSeconds,
+memoryLimitMb, workers and cacheFolder, a relative cacheFolder being taken from that folder.
 
-Exit code 0 only when every block is confirmed.`;
+Exit codes:
+  0  every block is confirmed and every record read cleanly
+  1  some block is not confirmed, or some record has a problem (each is listed)
+  2  the check could not run: a path that does not exist, no records or no blocks found,
+     a bad ${CONFIG_FILE}, an unknown command or option`;
+}
 
 /** Runs the command line; resolves to the exit code instead of exiting, so tests can call it. */
 export async function main(argv: string[], out: (text: string) => void, err: (text: string) => void): Promise<number> {
   const [command, ...rest] = argv;
   if (command === undefined || command === '--help' || command === '-h' || command === 'help') {
-    out(USAGE);
-    return command === undefined ? 2 : 0;
+    out(await usage());
+    return command === undefined ? EXIT.couldNotRun : EXIT.confirmed;
   }
   if (command === '--version') {
     out(TOOL_VERSION);
-    return 0;
+    return EXIT.confirmed;
   }
-  if (command !== 'check') {
-    err(`groundwork: unknown command ${command}\n\n${USAGE}`);
-    return 2;
-  }
+  const json = rest.includes('--json');
+  const tell = (errors: RunError[]) => {
+    for (const e of errors) err(`groundwork${command === 'check' ? ' check' : ''}: ${e.path ? `${e.path}: ` : ''}${e.message}`);
+  };
+  // Whatever stops the run is said on stderr and, with --json, in the document a script reads instead.
+  const refuse = async (errors: RunError[], withUsage: boolean): Promise<number> => {
+    tell(errors);
+    if (withUsage) err(`\n${await usage()}`);
+    if (json) out(JSON.stringify({ tool: { name: 'groundwork', version: TOOL_VERSION }, records: [], errors } satisfies CheckOutput, null, 2));
+    return EXIT.couldNotRun;
+  };
+  if (command !== 'check') return refuse([{ path: null, message: `unknown command ${command}` }], true);
   const unknown = rest.filter((a) => a.startsWith('-') && !OPTIONS.includes(a));
-  if (unknown.length > 0) {
-    err(`groundwork check: unknown option ${unknown.join(', ')}\n\n${USAGE}`);
-    return 2;
-  }
-  let config: LogConfig;
+  if (unknown.length > 0) return refuse([{ path: null, message: `unknown option ${unknown.join(', ')}` }], true);
+
+  const { checkLog, collectRecordFiles } = await import('../log/check-log.ts');
+  const { findLogRoot, LogConfigError, loadLogConfig } = await import('../log/log-config.ts');
+  const cwd = process.cwd();
+  const given = rest.filter((a) => !a.startsWith('-'));
+  const paths = given.length > 0 ? given : ['content/records'];
+  const { files, missing } = collectRecordFiles(paths);
+  if (missing.length > 0) return refuse(missing.map((path) => ({ path, message: 'no such file or folder' })), false);
+  if (files.length === 0) return refuse([{ path: paths.join(', '), message: 'no records (Markdown files) found, so nothing was checked' }], false);
+  let config;
   try {
-    config = loadLogConfig(process.cwd());
+    config = loadLogConfig(findLogRoot(paths, cwd));
   } catch (error) {
     if (!(error instanceof LogConfigError)) throw error;
-    err(`groundwork check: ${error.message}`);
-    return 2;
+    return refuse([{ path: null, message: error.message }], false);
   }
-  const paths = rest.filter((a) => !a.startsWith('-'));
-  const { files, missing } = collectRecordFiles(paths.length > 0 ? paths : ['content/records']);
-  for (const path of missing) err(`groundwork check: ${path}: no such file or folder`);
-  const { log, stats } = await checkLog(files, { config, recompute: rest.includes('--recompute') });
-  err(summary(stats));
-  out(rest.includes('--json') ? JSON.stringify(log, null, 2) : formatTable(log));
+  const { log, stats } = await checkLog(files, { root: cwd, config, recompute: rest.includes('--recompute') });
+  // Records without a single block leave a CI gate with nothing checked: that is not a pass.
+  const errors: RunError[] = stats.blocks === 0 ? [{ path: paths.join(', '), message: `no variational blocks found in ${count(files.length, 'Markdown file')}, so nothing was checked` }] : [];
+  tell(errors);
+  if (errors.length === 0) err(summary(stats));
+  out(json ? JSON.stringify({ ...log, errors } satisfies CheckOutput, null, 2) : (await import('./format-table.ts')).formatTable(log));
+  if (errors.length > 0) return EXIT.couldNotRun;
   const allConfirmed = log.records.every((r) => r.problems.length === 0 && r.blocks.every((b) => b.status === 'confirmed'));
-  return allConfirmed && missing.length === 0 ? 0 : 1;
+  return allConfirmed ? EXIT.confirmed : EXIT.notConfirmed;
 }
 
 const count = (n: number, one: string, many = `${one}s`) => `${n} ${n === 1 ? one : many}`;

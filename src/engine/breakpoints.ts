@@ -41,7 +41,8 @@ export function findBreakpoints(switches: Array<(x: number) => number>, lo: numb
   return { points, evaluations };
 }
 
-function samplingMesh(lo: number, hi: number, center: number, scale: number): number[] {
+/** The geometric mesh about `center` that findBreakpoints samples switch functions on. */
+export function samplingMesh(lo: number, hi: number, center: number, scale: number): number[] {
   const mesh = new Set<number>([center]);
   for (let k = -20 * SAMPLES_PER_OCTAVE; k <= (OCTAVES - 20) * SAMPLES_PER_OCTAVE; k++) {
     const d = scale * 2 ** (k / SAMPLES_PER_OCTAVE);

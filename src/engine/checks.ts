@@ -1,6 +1,7 @@
 import { ATOMIC_DISPLAY, g } from './format.ts';
 import type { GridLevels } from './grid-levels.ts';
 import type { MinimizeResult } from './minimize.ts';
+import { describeLevel, GROUND_LEVEL, type TargetLevel } from './parity.ts';
 import type { ProblemBase } from './problem.ts';
 import { gradedCheck, type GradedCheck } from './status.ts';
 
@@ -32,8 +33,16 @@ export function optimiserChecks(problem: CheckedProblem, optimiser: MinimizeResu
   ];
 }
 
-/** The variational energy against the grid's ground level and the published value; the grid against the published value. */
-export function referenceChecks(problem: CheckedProblem, energy: number, tolerance: number, grid: GridLevels | null, gridError: string | null): GradedCheck[] {
+/** How check details name the grid level compared with: E0(grid) for the ground level. */
+export function gridLevelName(target: TargetLevel): string {
+  return target.symmetry === null && target.index === 0 ? 'E0(grid)' : `E(grid, ${describeLevel(target)})`;
+}
+
+/**
+ * The variational energy against the grid level the block targets (the ground level by default) and the published
+ * value; the grid against the published value.
+ */
+export function referenceChecks(problem: CheckedProblem, energy: number, tolerance: number, grid: GridLevels | null, gridError: string | null, target: TargetLevel = GROUND_LEVEL): GradedCheck[] {
   const show = problem.display ?? ATOMIC_DISPLAY;
   const checks: GradedCheck[] = [];
   const published = problem.reference.published;
@@ -51,14 +60,20 @@ export function referenceChecks(problem: CheckedProblem, energy: number, toleran
         'unsettled',
       ),
     );
-    if (grid && grid.levels.length > 0) {
-      const e0 = grid.levels[0];
-      const slack = tolerance + 10 * (grid.errorEstimate[0] ?? 0);
+    const name = gridLevelName(target);
+    if (grid && grid.levels.length > 0 && grid.levels.length <= target.gridIndex) {
+      checks.push(
+        gradedCheck('grid-level-bound', false, `the grid finds no bound ${describeLevel(target)}: ${grid.levels.length} bound level${grid.levels.length === 1 ? '' : 's'} below the continuum threshold ${show.energy(grid.threshold)}`, 'unsettled'),
+      );
+    }
+    if (grid && grid.levels.length > target.gridIndex) {
+      const e0 = grid.levels[target.gridIndex];
+      const slack = tolerance + 10 * (grid.errorEstimate[target.gridIndex] ?? 0);
       checks.push(
         gradedCheck(
           'above-grid-reference',
           energy >= e0 - slack,
-          `E - E0(grid) = ${show.energy(energy - e0, 4)} (must be >= -${show.energy(slack, 2)})`,
+          `E - ${name} = ${show.energy(energy - e0, 4)} (must be >= -${show.energy(slack, 2)})`,
           'below-reference',
         ),
       );
@@ -69,7 +84,7 @@ export function referenceChecks(problem: CheckedProblem, energy: number, toleran
           gradedCheck(
             'grid-matches-published',
             gap <= allowed,
-            `|E0(grid) - published| = ${show.energy(gap, 3)} (allowed ${show.energy(allowed, 3)}: the published value's precision plus the grid's)`,
+            `|${name} - published| = ${show.energy(gap, 3)} (allowed ${show.energy(allowed, 3)}: the published value's precision plus the grid's)`,
             'unsettled',
           ),
         );

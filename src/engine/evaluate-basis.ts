@@ -5,13 +5,15 @@ import { groundOverlap, invalidResult, type EngineResult } from './evaluate-prob
 import { ATOMIC_DISPLAY, g } from './format.ts';
 import { gridReference } from './grid-reference.ts';
 import { optimiseLinearBasis, solveLinearBasis, type LinearBasisProblem, type LinearBasisResult } from './linear-basis.ts';
+import { hamiltonianSwitches, massPositiveCheck } from './mass-profile.ts';
 import type { MinimizeResult } from './minimize.ts';
 import { plotData } from './plot-data.ts';
 import type { BasisProblem } from './problem.ts';
 import { gradedCheck, statusOf, type GradedCheck } from './status.ts';
 import { COMPARISON_FLOOR, ENERGY_RELATIVE_ERROR_LIMIT } from './tolerances.ts';
 import { probeTrial } from './trial-probe.ts';
-import { virialRatio } from './virial.ts';
+import { GROUND_LEVEL } from './parity.ts';
+import { virialReport } from './virial.ts';
 
 /**
  * Evaluates a block on the linear variational method: the lowest levels of H in the span of the basis (optimising
@@ -30,7 +32,9 @@ export function evaluateBasisProblem(problem: BasisProblem): EngineResult {
   setParameters(start);
   const envelope = (x: number) => Math.sqrt(functions.reduce((sum, f) => sum + f.value(x) ** 2, 0));
   const probe = probeTrial(envelope, domain);
-  const breaks = [...new Set([...findBreakpoints(problem.potentialSwitches, domain.lo, domain.hi, probe.center, probe.scale).points, ...findBreakpoints(switches, domain.lo, domain.hi, probe.center, probe.scale).points])].sort((a, b) => a - b);
+  const massFault = massPositiveCheck(problem, domain, probe.center, probe.scale);
+  if (massFault) return invalidResult([massFault], { energyEvaluations: 0, trialEvaluations: probe.evaluations }, started);
+  const breaks = [...new Set([...findBreakpoints(hamiltonianSwitches(problem), domain.lo, domain.hi, probe.center, probe.scale).points, ...findBreakpoints(switches, domain.lo, domain.hi, probe.center, probe.scale).points])].sort((a, b) => a - b);
   const linear: LinearBasisProblem = { ...problem, basis: { functions, setParameters }, breakpoints: breaks, states: problem.states };
 
   let optimiser: MinimizeResult | null = null;
@@ -58,7 +62,7 @@ export function evaluateBasisProblem(problem: BasisProblem): EngineResult {
     gradedCheck(
       'basis-usable',
       true,
-      `${functions.length} functions, ${overlapInfo.kept} independent combinations kept (overlap condition number ${g(overlapInfo.conditionNumber, 3)}${overlapInfo.dropped > 0 ? `, ${overlapInfo.dropped} near-dependent dropped` : ''})`,
+      `${functions.length} functions, ${overlapInfo.kept} independent combinations kept (overlap matrix ${overlapInfo.summary})`,
       'invalid',
     ),
     gradedCheck(
@@ -139,13 +143,22 @@ export function evaluateBasisProblem(problem: BasisProblem): EngineResult {
     gridError,
     bounds: { upper: energy, lower: null, weinstein: null, nextLevel: levels[1]?.energy ?? null },
     overlap,
-    virial: virialRatio(problem.potential, domain.lo === -Infinity, ground.kinetic, ground.potential),
+    ...virialReport(problem.potential, domain.walls, domain.lo === -Infinity, ground.kinetic, ground.potential, Boolean(problem.massProfile)),
     optimiser,
     checks,
     counts,
     timings,
     plots,
     states: levels.map((level, k) => ({ energy: level.energy, errorEstimate: level.errorEstimate, reference: grid?.levels[k] ?? null })),
-    basis: { functions: functions.length, kept: overlapInfo.kept, dropped: overlapInfo.dropped, conditionNumber: overlapInfo.conditionNumber, warning: solution.warning },
+    level: GROUND_LEVEL,
+    basis: {
+      functions: functions.length,
+      kept: overlapInfo.kept,
+      dropped: overlapInfo.dropped,
+      conditionNumber: Number.isFinite(overlapInfo.conditionNumber) ? overlapInfo.conditionNumber : null,
+      keptConditionNumber: overlapInfo.keptConditionNumber,
+      conditioning: overlapInfo.summary,
+      warning: solution.warning,
+    },
   };
 }

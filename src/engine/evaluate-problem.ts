@@ -1,19 +1,21 @@
 import { eckartOverlapFloor, templeBound, weinsteinInterval } from './bounds.ts';
 import { findBreakpoints } from './breakpoints.ts';
-import { claimChecks, optimiserChecks, referenceChecks } from './checks.ts';
+import { claimChecks, gridLevelName, optimiserChecks, referenceChecks } from './checks.ts';
 import { COMPARISON_FLOOR, ENERGY_RELATIVE_ERROR_LIMIT, WALL_TOLERANCE } from './tolerances.ts';
 import { domainOf, type Domain } from './domain.ts';
 import { expectation, placedExpectation, searchExpectation, type Expectation } from './expectation.ts';
 import { ATOMIC_DISPLAY, g, type ValueDisplay } from './format.ts';
 import type { GridLevels } from './grid-levels.ts';
+import { describeLevel, resolveTarget, type TargetLevel, GROUND_LEVEL } from './parity.ts';
 import { gridReference } from './grid-reference.ts';
+import { hamiltonianSwitches, massPositiveCheck } from './mass-profile.ts';
 import { minimizeBounded, type MinimizeResult } from './minimize.ts';
 import { plotData, type PlotData } from './plot-data.ts';
 import type { VariationalProblem } from './problem.ts';
 import { findNonFiniteFactor, probeTrial } from './trial-probe.ts';
 import { gradedCheck, statusOf, type GradedCheck, type Status } from './status.ts';
 import { energyVariance, type VarianceResult } from './variance.ts';
-import { virialRatio, type Virial } from './virial.ts';
+import { virialReport, type Virial } from './virial.ts';
 
 export interface EngineResult {
   status: Status;
@@ -28,6 +30,8 @@ export interface EngineResult {
   bounds: { upper: number | null; lower: number | null; weinstein: [number, number] | null; nextLevel: number | null };
   overlap: number | null;
   virial: Virial | null;
+  /** Why no virial ratio is given for a power-law potential (hard walls away from the origin, a mass m(x)); else null. */
+  virialNote: string | null;
   optimiser: MinimizeResult | null;
   checks: GradedCheck[];
   counts: { energyEvaluations: number; trialEvaluations: number };
@@ -39,13 +43,20 @@ export interface EngineResult {
   states: Array<{ energy: number; errorEstimate: number; reference: number | null }>;
   /** The linear method's overlap diagnostics; null for a single trial. */
   basis: BasisDiagnostics | null;
+  /** The grid level the energy is compared with (declared by the block, read off an odd trial, or the ground level). */
+  level: TargetLevel;
 }
 
 export interface BasisDiagnostics {
   functions: number;
   kept: number;
   dropped: number;
-  conditionNumber: number;
+  /** Of the unit-diagonal overlap matrix; null when it is singular to rounding (then directions were dropped). */
+  conditionNumber: number | null;
+  /** The same over the kept directions, the subspace the levels were solved in. */
+  keptConditionNumber: number;
+  /** The conditioning in one phrase: "condition number 12.3", or "numerically singular: 1 of 3 directions dropped ...". */
+  conditioning: string;
   warning: string | null;
 }
 
@@ -65,9 +76,12 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
   // The potential's kinks are searched for around where the trial lives, once for the whole search.
   const startProbe = probeTrial(problem.trial.value, domain);
   counts.trialEvaluations += startProbe.evaluations;
-  const potentialBreaks = findBreakpoints(problem.potentialSwitches, domain.lo, domain.hi, startProbe.center, startProbe.scale).points;
+  const massFault = massPositiveCheck(problem, domain, startProbe.center, startProbe.scale);
+  if (massFault) return invalidResult([massFault], counts, started);
+  // A step of the mass is a split point and a grid element edge, as a kink of the potential is.
+  const potentialBreaks = findBreakpoints(hamiltonianSwitches(problem), domain.lo, domain.hi, startProbe.center, startProbe.scale).points;
   const atStart = counted(placedExpectation(problem, domain, potentialBreaks, startProbe), counts);
-  const startChecks = trialChecks(problem, domain, atStart, 'the start values');
+  const startChecks = [...trialChecks(problem, domain, atStart, 'the start values', show), ...targetOf(problem, domain, atStart, 'the start values').checks];
   if (startChecks.some((c) => !c.pass)) return invalidResult(startChecks, counts, started);
 
   let optimiser: MinimizeResult | null = null;
@@ -78,7 +92,8 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
     best = Array.from(optimiser.x);
   }
   const optimum = evaluate(problem, domain, potentialBreaks, best, counts);
-  const optimumChecks = trialChecks(problem, domain, optimum, 'the optimum');
+  const { target, checks: targetChecks } = targetOf(problem, domain, optimum, 'the optimum');
+  const optimumChecks = [...trialChecks(problem, domain, optimum, 'the optimum', show), ...targetChecks];
   if (optimumChecks.some((c) => !c.pass)) return invalidResult(optimumChecks, counts, started);
 
   const checks: GradedCheck[] = [...optimumChecks];
@@ -97,14 +112,20 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
   problem.trial.setParameters(best);
   const variance = energyVariance(problem, domain, optimum);
 
-  const { grid, gridError, referenceMs } = gridReference(problem, potentialBreaks, { center: optimum.probe.center, width: optimum.probe.scale });
+  // A level above the ground level needs the grid to settle every level up to the next one of its parity.
+  const levels = target.nextGridIndex > 1 ? target.nextGridIndex + 1 : undefined;
+  const { grid, gridError, referenceMs } = gridReference(problem, potentialBreaks, { center: optimum.probe.center, width: optimum.probe.scale }, levels);
   const tolerance = 10 * optimum.errorEstimate + COMPARISON_FLOOR * Math.max(1, Math.abs(energy));
-  checks.push(...referenceChecks(problem, energy, tolerance, grid, gridError));
+  checks.push(...referenceChecks(problem, energy, tolerance, grid, gridError, target));
 
-  const nextLevel = grid ? (grid.levels.length > 1 ? grid.levels[1] : grid.threshold) : null;
+  const reference = grid?.levels[target.gridIndex] ?? null;
+  const nextLevel = grid ? (grid.levels[target.nextGridIndex] ?? grid.threshold) : null;
   const lower = templeBound(energy, variance.value, nextLevel);
-  const overlap = grid ? groundOverlap(problem.trial.value, domain, grid, optimum.norm) : null;
-  if (grid && grid.converged) checks.push(...boundChecks(energy, lower, overlap, grid, nextLevel, tolerance + 10 * (grid.errorEstimate[0] ?? 0), show));
+  const state = grid?.states[target.gridIndex];
+  const overlap = grid && state ? groundOverlap(problem.trial.value, domain, grid, optimum.norm, state) : null;
+  if (grid && grid.converged && reference !== null) {
+    checks.push(...boundChecks(energy, lower, overlap, reference, target, nextLevel, tolerance + 10 * (grid.errorEstimate[target.gridIndex] ?? 0), show));
+  }
   if (problem.claim) checks.push(...claimChecks(problem, energy, best));
 
   const { status, message } = statusOf(checks);
@@ -122,6 +143,7 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
       center: optimum.probe.center,
       scale: optimum.probe.scale,
       grid,
+      gridLevel: target.gridIndex,
     },
     problem.plots,
   );
@@ -137,15 +159,21 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
     gridError,
     bounds: { upper: energy, lower, weinstein: weinsteinInterval(energy, variance.value), nextLevel },
     overlap,
-    virial: virialRatio(problem.potential, domain.lo === -Infinity, optimum.kinetic, optimum.potential),
+    ...virialReport(problem.potential, domain.walls, domain.lo === -Infinity, optimum.kinetic, optimum.potential, Boolean(problem.massProfile)),
     optimiser,
     checks,
     counts: { ...counts, trialEvaluations: counts.trialEvaluations + variance.evaluations },
     timings,
     plots,
-    states: [{ energy, errorEstimate: optimum.errorEstimate, reference: grid?.levels[0] ?? null }],
+    states: [{ energy, errorEstimate: optimum.errorEstimate, reference }],
     basis: null,
+    level: target,
   };
+}
+
+/** The level the trial at `at` is compared with, and the checks of a declared symmetry. */
+function targetOf(problem: VariationalProblem, domain: Domain, at: Expectation, where: string): ReturnType<typeof resolveTarget> {
+  return resolveTarget(problem.level, problem.potential, problem.trial.value, domain, at.probe.peakAmplitude, where);
 }
 
 function evaluate(problem: VariationalProblem, domain: Domain, potentialBreaks: number[], p: ArrayLike<number>, counts: EngineResult['counts']): Expectation {
@@ -159,16 +187,16 @@ function counted<T extends { evaluations: number }>(result: T, counts: EngineRes
 }
 
 /** Square-integrable, finite energy integrals, and zero at every hard wall. */
-function trialChecks(problem: VariationalProblem, domain: Domain, at: Expectation, where: string): GradedCheck[] {
+function trialChecks(problem: VariationalProblem, domain: Domain, at: Expectation, where: string, show: ValueDisplay): GradedCheck[] {
   // A NaN or an overflow met by the quadrature is traced to the input that produced it.
-  const nonFinite = at.failure === 'non-finite' ? findNonFiniteFactor(problem.potential, problem.trial, domain) : null;
+  const nonFinite = at.failure === 'non-finite' ? findNonFiniteFactor(problem.potential, problem.trial, domain, at.probe, show) : null;
   const checks = [
     nonFinite
       ? gradedCheck('finite-integrands', false, `at ${where}: ${nonFinite.detail}`, 'invalid', nonFinite.culprit === 'potential' ? 'potential' : undefined)
       : gradedCheck(
           'normalisable',
           at.failure === null,
-          at.failure === null ? `norm integral ${g(at.norm)} at ${where}` : `at ${where}: ${at.failureDetail}`,
+          at.failure === null ? `norm integral ${show.norm(at.norm)} at ${where}` : `at ${where}: ${at.failureDetail}`,
           'invalid',
         ),
   ];
@@ -180,7 +208,7 @@ function trialChecks(problem: VariationalProblem, domain: Domain, at: Expectatio
       gradedCheck(
         'hard-wall',
         Number.isFinite(psi) && ratio <= WALL_TOLERANCE,
-        `trial at the wall ${g(wall)} is ${g(psi, 4)} (${g(ratio, 3)} of its peak; must vanish) at ${where}`,
+        `trial at the wall ${show.length(wall)} is ${g(psi, 4)} (${g(ratio, 3)} of its peak; must vanish) at ${where}`,
         'invalid',
       ),
     );
@@ -188,26 +216,31 @@ function trialChecks(problem: VariationalProblem, domain: Domain, at: Expectatio
   return checks;
 }
 
-function boundChecks(energy: number, lower: number | null, overlap: number | null, grid: GridLevels, nextLevel: number | null, tolerance: number, show: ValueDisplay): GradedCheck[] {
+/**
+ * Temple's bound against the targeted grid level e0, and Eckart's overlap floor. Restricted to the states of one parity,
+ * Temple's bound holds for the level below the next one of that parity, and Eckart's for the lowest level of that parity
+ * with E1 the next; above the lowest level Eckart's criterion says nothing, so it is left out.
+ */
+function boundChecks(energy: number, lower: number | null, overlap: number | null, e0: number, target: TargetLevel, nextLevel: number | null, tolerance: number, show: ValueDisplay): GradedCheck[] {
   const checks: GradedCheck[] = [];
-  const e0 = grid.levels[0];
   if (lower !== null) {
     checks.push(
       gradedCheck(
         'temple-below-grid',
         lower <= e0 + tolerance,
-        `Temple's lower bound ${show.energy(lower)} against E0(grid) ${show.energy(e0)} (with E1 = ${show.energy(nextLevel ?? NaN)})`,
+        `Temple's lower bound ${show.energy(lower)} against ${gridLevelName(target)} ${show.energy(e0)} (with E1 = ${show.energy(nextLevel ?? NaN)})`,
         'unsettled',
       ),
     );
   }
-  const floor = eckartOverlapFloor(energy, e0, nextLevel);
+  const floor = target.index === 0 ? eckartOverlapFloor(energy, e0, nextLevel) : null;
   if (overlap !== null && floor !== null) {
+    const state = target.symmetry === null ? 'ground state' : `state of the ${describeLevel(target)}`;
     checks.push(
       gradedCheck(
         'eckart-overlap',
         overlap >= floor - 1e-6,
-        `overlap with the grid ground state ${g(overlap, 8)} (Eckart's floor ${g(floor, 8)})`,
+        `overlap with the grid ${state} ${g(overlap, 8)} (Eckart's floor ${g(floor, 8)})`,
         'unsettled',
       ),
     );
@@ -215,13 +248,13 @@ function boundChecks(energy: number, lower: number | null, overlap: number | nul
   return checks;
 }
 
-/** |<psi|psi0>|^2 with the grid's lumped quadrature (radial: on chi = r R). */
-export function groundOverlap(value: (x: number) => number, domain: Domain, grid: GridLevels, norm: number): number {
+/** |<psi|psi_n>|^2 with the grid's lumped quadrature (radial: on chi = r R), against the grid ground state unless another is given. */
+export function groundOverlap(value: (x: number) => number, domain: Domain, grid: GridLevels, norm: number, state: Float64Array = grid.ground): number {
   let sum = 0;
   for (let i = 0; i < grid.nodes.length; i++) {
     const x = grid.nodes[i];
     const trial = value(x) * (domain.radial ? x : 1);
-    sum += grid.weights[i] * trial * grid.ground[i];
+    sum += grid.weights[i] * trial * state[i];
   }
   return (sum * sum) / norm;
 }
@@ -241,6 +274,7 @@ export function invalidResult(checks: GradedCheck[], counts: EngineResult['count
     bounds: { upper: null, lower: null, weinstein: null, nextLevel: null },
     overlap: null,
     virial: null,
+    virialNote: null,
     optimiser: null,
     checks,
     counts,
@@ -248,5 +282,6 @@ export function invalidResult(checks: GradedCheck[], counts: EngineResult['count
     plots: null,
     states: [],
     basis: null,
+    level: GROUND_LEVEL,
   };
 }

@@ -1,8 +1,9 @@
 import { findBreakpoints } from './breakpoints.ts';
 import { splitPoints, type Domain } from './domain.ts';
-import type { VariationalProblem } from './problem.ts';
+import { ATOMIC_DISPLAY, g, type ValueDisplay } from './format.ts';
+import type { MassProfile, VariationalProblem } from './problem.ts';
 import { integrateVector, type IntegrationResult, type Partition } from './quadrature.ts';
-import { probeTrial, type TrialProbe } from './trial-probe.ts';
+import { negligibleAt, probeTrial, type TrialProbe } from './trial-probe.ts';
 
 /** <H> of the trial at one parameter point, with the pieces it is made of and their error. */
 export interface Expectation {
@@ -26,7 +27,8 @@ export interface Expectation {
 export const EXPECTATION_DEFAULTS = { relTol: 1e-12, maxIntervals: 2000 };
 
 /**
- * N = <psi|psi>, <T> = (hbar^2/2m) <psi'|psi'> (radial: plus l(l+1)/(2 m r^2) and weight r^2) and <V>,
+ * N = <psi|psi>, <T> = (hbar^2/2m) <psi'|psi'> (radial: plus l(l+1)/(2 m r^2) and weight r^2; a mass m(x) that
+ * depends on the coordinate goes inside the integral, BenDaniel & Duke, Phys. Rev. 152, 683 (1966)) and <V>,
  * in one vector quadrature; the |psi'|^2 form needs no second derivative and is exact for
  * trials that vanish at the walls.
  */
@@ -44,9 +46,13 @@ export function placedExpectation(problem: VariationalProblem, domain: Domain, p
   const centre = Number.isFinite(domain.lo) ? [] : [probe.center];
   const splits = splitPoints(domain, [...potentialBreaks, ...trialBreaks.points, ...centre]);
   const l2 = problem.angularMomentum * (problem.angularMomentum + 1);
-  const integrand = domain.radial
+  const profile = problem.massProfile;
+  const integrand = profile
+    ? massProfileIntegrand(problem, profile, domain.radial, l2, probe)
+    : domain.radial
     ? (r: number, out: Float64Array) => {
         const R = trial.value(r);
+        if (negligibleAt(probe, true, r, R)) return out.fill(0);
         const dR = trial.d1(r);
         const w = r * r;
         out[0] = w * R * R;
@@ -55,6 +61,7 @@ export function placedExpectation(problem: VariationalProblem, domain: Domain, p
       }
     : (x: number, out: Float64Array) => {
         const psi = trial.value(x);
+        if (negligibleAt(probe, false, x, psi)) return out.fill(0);
         const dpsi = trial.d1(x);
         out[0] = psi * psi;
         out[1] = dpsi * dpsi;
@@ -65,12 +72,14 @@ export function placedExpectation(problem: VariationalProblem, domain: Domain, p
   const evaluations = trialBreaks.evaluations + result.evaluations;
   const [n, tk, v] = result.values;
   const norm = n;
-  const kinetic = tk / (2 * mass) / norm;
+  // With a position-dependent mass, 1/m(x) sits inside the kinetic integral already.
+  const twoMass = profile ? 2 : 2 * mass;
+  const kinetic = tk / twoMass / norm;
   const potentialEnergy = v / norm;
   const energy = kinetic + potentialEnergy;
   const [en, et, ev] = result.errorEstimates;
-  const errorEstimate = (et / (2 * mass) + ev + Math.abs(energy) * en) / Math.abs(norm);
-  const failure = classifyFailure(result, probe);
+  const errorEstimate = (et / twoMass + ev + Math.abs(energy) * en) / Math.abs(norm);
+  const failure = classifyFailure(result, probe, problem.display ?? ATOMIC_DISPLAY);
   return {
     energy: failure ? Infinity : energy,
     kinetic,
@@ -83,6 +92,20 @@ export function placedExpectation(problem: VariationalProblem, domain: Domain, p
     splits,
     partition: result.partition,
     evaluations,
+  };
+}
+
+/** The integrands of placedExpectation with the BenDaniel–Duke kinetic density |psi'|^2 / m(x) (radial: (r^2 |R'|^2 + l(l+1) |R|^2) / m(r)). */
+function massProfileIntegrand(problem: VariationalProblem, profile: MassProfile, radial: boolean, l2: number, probe: TrialProbe): (x: number, out: Float64Array) => void {
+  const { trial, potential } = problem;
+  return (x, out) => {
+    const psi = trial.value(x);
+    if (negligibleAt(probe, radial, x, psi)) return out.fill(0);
+    const dpsi = trial.d1(x);
+    const w = radial ? x * x : 1;
+    out[0] = w * psi * psi;
+    out[1] = (w * dpsi * dpsi + l2 * psi * psi) / profile.value(x);
+    out[2] = psi === 0 ? 0 : w * potential(x) * psi * psi;
   };
 }
 
@@ -129,8 +152,8 @@ export function searchExpectation(problem: VariationalProblem, domain: Domain, p
 
 const panelCount = (partition: Partition) => partition.panels.length / 3;
 
-function classifyFailure(result: IntegrationResult, probe: TrialProbe): { kind: NonNullable<Expectation['failure']>; detail: string } | null {
-  if (probe.nonFiniteAt !== null) return { kind: 'non-finite', detail: `the trial is not a finite number at ${probe.nonFiniteAt} (a trial that overflows far out is not square-integrable)` };
+function classifyFailure(result: IntegrationResult, probe: TrialProbe, show: ValueDisplay): { kind: NonNullable<Expectation['failure']>; detail: string } | null {
+  if (probe.nonFiniteAt !== null) return { kind: 'non-finite', detail: `the trial is not a finite number at ${show.length(probe.nonFiniteAt)} (a trial that overflows far out is not square-integrable)` };
   if (result.status === 'non-finite') return { kind: 'non-finite', detail: result.message ?? 'an integrand is not a finite number' };
   if (result.converged && result.values[0] > 0) return null;
   // Attribute the failure to the first integral whose own error estimate is out of bounds.
@@ -138,7 +161,9 @@ function classifyFailure(result: IntegrationResult, probe: TrialProbe): { kind: 
   const words = ['the norm integral of |psi|^2', 'the kinetic integral of |psi\'|^2', 'the potential integral of V |psi|^2'];
   for (let k = 0; k < 3; k++) {
     const bad = !Number.isFinite(result.values[k]) || result.errorEstimates[k] > 1e-6 * Math.abs(result.absValues[k]);
-    if (bad) return { kind: names[k], detail: `${words[k]} does not converge (estimate ${result.values[k].toPrecision(6)} +/- ${result.errorEstimates[k].toPrecision(2)})` };
+    // Relative, so the detail reads the same in any units (the three integrals have different dimensions).
+    const size = Number.isFinite(result.values[k]) ? `relative error estimate ${g(result.errorEstimates[k] / Math.abs(result.values[k]), 2)}` : `estimate ${result.values[k]}`;
+    if (bad) return { kind: names[k], detail: `${words[k]} does not converge (${size})` };
   }
   if (!(result.values[0] > 0)) return { kind: 'not-normalisable', detail: 'the trial is zero everywhere' };
   return null;

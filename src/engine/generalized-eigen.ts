@@ -91,8 +91,10 @@ export interface GeneralizedEigen {
   vectors: Float64Array[];
   /** Eigenvalues of S scaled to unit diagonal, ascending: their spread measures linear dependence. */
   overlapEigenvalues: Float64Array;
-  /** Largest over smallest eigenvalue of the unit-diagonal S (Infinity when the smallest is not positive). */
+  /** Largest over smallest eigenvalue of the unit-diagonal S (Infinity when the smallest is not positive: S is singular to rounding). */
   conditionNumber: number;
+  /** Largest over smallest kept eigenvalue: the conditioning of the subspace actually solved in (NaN when none is kept). */
+  keptConditionNumber: number;
   /** Directions of S dropped for eigenvalues at or below cutoff. */
   dropped: number;
   /** The cutoff on the unit-diagonal S's eigenvalues: the larger of relativeThreshold * largest and the noise floor. */
@@ -131,7 +133,7 @@ export function solveGeneralized(
   if (h.length !== size * size || s.length !== size * size) throw new RangeError(`solveGeneralized: expected ${size * size} entries per matrix`);
   if (!(relativeThreshold >= 0 && relativeThreshold < 1)) throw new RangeError('solveGeneralized: relativeThreshold must lie in [0, 1)');
   const fail = (message: string): GeneralizedEigen => ({
-    values: new Float64Array(0), vectors: [], overlapEigenvalues: new Float64Array(0), conditionNumber: NaN,
+    values: new Float64Array(0), vectors: [], overlapEigenvalues: new Float64Array(0), conditionNumber: NaN, keptConditionNumber: NaN,
     dropped: 0, cutoff: NaN, noiseFloor: NaN, sweeps: 0, converged: false, message,
   });
   for (let k = 0; k < size * size; k++) {
@@ -209,6 +211,7 @@ export function solveGeneralized(
     vectors,
     overlapEigenvalues: overlap.values,
     conditionNumber,
+    keptConditionNumber: m > 0 ? largest / overlap.values[kept[0]] : NaN,
     dropped: size - m,
     cutoff,
     noiseFloor,

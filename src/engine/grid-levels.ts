@@ -3,13 +3,26 @@
  * their vectors of H = p^2/(2m) + V (hbar = 1) by the finite-element discrete variable representation.
  */
 import { lowestEigenpairs, type SymmetricBand } from './banded-eigen.ts';
+import { ATOMIC_DISPLAY, type ValueDisplay } from './format.ts';
 import { gllRule, type GllRule } from './gll.ts';
 
 export type GridSpace = 'line' | 'half-line' | 'radial' | 'box';
 
+/** A mass that depends on the coordinate, with its slope (zero on either side of a step). */
+export interface GridMassProfile {
+  value(x: number): number;
+  d1(x: number): number;
+}
+
 export interface GridProblem {
   space: GridSpace;
+  /** The constant mass; ignored when massProfile is given. */
   mass: number;
+  /**
+   * A mass that depends on the coordinate: the kinetic matrix takes 1/m at the quadrature nodes (BenDaniel–Duke form
+   * (1/2) int chi_i' chi_j' / m), and its steps must be among `breakpoints`, so that they fall on element edges.
+   */
+  massProfile?: GridMassProfile | null;
   potential: (x: number) => number;
   angularMomentum?: number;
   box?: [number, number];
@@ -23,6 +36,8 @@ export interface GridProblem {
   levels?: number;
   relTol?: number;
   maxNodes?: number;
+  /** How messages state energies and positions (default: atomic units). */
+  display?: ValueDisplay;
 }
 
 export interface GridLevels {
@@ -89,7 +104,10 @@ interface Context {
   space: GridSpace;
   /** Hard walls of a box problem; null for the open spaces. */
   box: [number, number] | null;
-  mass: number;
+  /** The mass at x (constant unless the problem has a mass profile): WKB wavenumbers and kinetic scales. */
+  massAt: (x: number) => number;
+  /** The position-dependent mass, or null for the constant-mass kinetic matrix. */
+  profile: GridMassProfile | null;
   veff: (x: number) => number;
   threshold: number;
   breakpoints: number[];
@@ -100,6 +118,7 @@ interface Context {
   relTol: number;
   maxNodes: number;
   counters: { grids: number; eigenIterations: number; evaluations: number };
+  show: ValueDisplay;
 }
 
 interface Grid {
@@ -151,6 +170,19 @@ function referenceElement(order: number): { rule: GllRule; stiffness: Float64Arr
 
 function countingPotential(problem: GridProblem, counters: Context['counters']): (x: number) => number {
   const l = problem.space === 'radial' ? (problem.angularMomentum ?? 0) : 0;
+  const profile = problem.massProfile;
+  if (profile) {
+    // With u = r R, <T> = (1/2) int (r^2 |R'|^2 + l(l+1) |R|^2) / m dr = (1/2) int |u'|^2 / m dr + (1/2) int u^2 (1/m)' / r dr:
+    // the smooth part of (1/m)' / (2r) joins the effective potential (steps are added on the grid's edge nodes).
+    const radial = problem.space === 'radial';
+    return (x: number) => {
+      counters.evaluations++;
+      const v = problem.potential(x);
+      if (!radial) return v;
+      const m = profile.value(x);
+      return v + (l * (l + 1)) / (2 * m * x * x) - profile.d1(x) / (2 * x * m * m);
+    };
+  }
   const centrifugal = (l * (l + 1)) / (2 * problem.mass);
   return (x: number) => {
     counters.evaluations++;
@@ -191,10 +223,10 @@ function continuumThreshold(ctx: Context, estimate: StateEstimate): number {
   }
 }
 
-function initialEstimate(problem: GridProblem, box: [number, number] | null, veff: (x: number) => number): StateEstimate {
+function initialEstimate(problem: GridProblem, box: [number, number] | null, veff: (x: number) => number, massAt: (x: number) => number): StateEstimate {
   const center = problem.hint?.center ?? (box ? 0.5 * (box[0] + box[1]) : problem.space === 'line' ? 0 : 1);
   const width = problem.hint?.width ?? (box ? 0.25 * (box[1] - box[0]) : 1);
-  const kinetic = 1 / (2 * problem.mass * width * width);
+  const kinetic = 1 / (2 * massAt(center) * width * width);
   const v = veff(center);
   return { energy: Number.isFinite(v) ? v + kinetic : kinetic, spread: kinetic, settleScale: kinetic, center, width };
 }
@@ -211,10 +243,10 @@ function initialDomain(problem: GridProblem, box: [number, number] | null, estim
 /** Local resolution demand: WKB wavenumber sqrt(2m|V - E|), capped at singularities, plus a floor for flat regions. */
 function meshDensity(ctx: Context, estimate: StateEstimate): (x: number) => number {
   const cap = densityCap * estimate.spread;
-  const floor = 0.5 * Math.sqrt(2 * ctx.mass * estimate.spread);
   return (x: number) => {
     const gap = Math.abs(ctx.veff(x) - estimate.energy);
-    return Math.sqrt(2 * ctx.mass * (gap < cap ? gap : cap)) + floor;
+    const mass = ctx.massAt(x);
+    return Math.sqrt(2 * mass * (gap < cap ? gap : cap)) + 0.5 * Math.sqrt(2 * mass * estimate.spread);
   };
 }
 
@@ -272,16 +304,18 @@ function buildGrid(ctx: Context, boundaries: number[], order: number): Outcome<G
   const bandwidth = step;
   const width = bandwidth + 1;
   const upper = new Float64Array(size * width);
-  const kineticFactor = 1 / (2 * ctx.mass);
+  const kineticFactor = ctx.profile ? 0.5 : 1 / (2 * ctx.massAt(0));
   for (let e = 0; e < elements; e++) {
     const scale = kineticFactor / (0.5 * (boundaries[e + 1] - boundaries[e]));
+    const element = ctx.profile ? elementStiffness(ctx.profile.value, rule, boundaries[e], boundaries[e + 1]) : stiffness;
+    if (!element) return { ok: false, message: `the mass is not a positive finite number in the element [${boundaries[e]}, ${boundaries[e + 1]}]` };
     for (let i = 0; i < order; i++) {
       const row = e * step + i - 1;
       if (row < 0 || row >= size) continue;
       for (let j = i; j < order; j++) {
         const column = e * step + j - 1;
         if (column >= size) continue;
-        upper[row * width + column - row] += scale * stiffness[i * order + j];
+        upper[row * width + column - row] += scale * element[i * order + j];
       }
     }
   }
@@ -289,8 +323,8 @@ function buildGrid(ctx: Context, boundaries: number[], order: number): Outcome<G
   const potential = new Float64Array(size);
   for (let row = 0; row < size; row++) {
     const e = (row + 1) / step;
-    const v = Number.isInteger(e) && breaks.has(boundaries[e]) ? breakpointPotential(ctx, boundaries, e) : ctx.veff(nodes[row]);
-    if (!Number.isFinite(v)) return { ok: false, message: `the potential is not finite at x = ${nodes[row]} (V = ${v})` };
+    const v = Number.isInteger(e) && breaks.has(boundaries[e]) ? breakpointPotential(ctx, boundaries, e) + radialMassStep(ctx, boundaries, e, weights[row]) : ctx.veff(nodes[row]);
+    if (!Number.isFinite(v)) return { ok: false, message: `the potential is not finite at x = ${ctx.show.length(nodes[row])} (V = ${ctx.show.energy(v)})` };
     for (let k = 0; k < width && row + k < size; k++) upper[row * width + k] /= Math.sqrt(weights[row] * weights[row + k]);
     upper[row * width] += v;
     potential[row] = v;
@@ -308,6 +342,47 @@ function breakpointPotential(ctx: Context, boundaries: number[], index: number):
   const rightLength = boundaries[index + 1] - x;
   const offset = 4 * Number.EPSILON * Math.max(Math.abs(x), leftLength, rightLength);
   return (leftLength * ctx.veff(x - offset) + rightLength * ctx.veff(x + offset)) / (leftLength + rightLength);
+}
+
+/**
+ * The element's stiffness (int l_i' l_j' / m on the reference element) by its own GLL rule, with 1/m at the nodes;
+ * the end nodes take the mass from inside the element, so a mass step on an edge is seen from each side. Null where
+ * the mass is not positive and finite.
+ */
+function elementStiffness(mass: (x: number) => number, rule: GllRule, left: number, right: number): Float64Array | null {
+  const order = rule.nodes.length;
+  const half = 0.5 * (right - left);
+  const mid = 0.5 * (right + left);
+  const offset = 4 * Number.EPSILON * Math.max(Math.abs(left), Math.abs(right), right - left);
+  const inverse = new Float64Array(order);
+  for (let k = 0; k < order; k++) {
+    const x = k === 0 ? left + offset : k === order - 1 ? right - offset : mid + half * rule.nodes[k];
+    const m = mass(x);
+    if (!(m > 0) || !Number.isFinite(m)) return null;
+    inverse[k] = 1 / m;
+  }
+  const { weights, derivative } = rule;
+  const stiffness = new Float64Array(order * order);
+  for (let i = 0; i < order; i++) {
+    for (let j = 0; j < order; j++) {
+      let s = 0;
+      for (let k = 0; k < order; k++) s += weights[k] * inverse[k] * derivative[k * order + i] * derivative[k * order + j];
+      stiffness[i * order + j] = s;
+    }
+  }
+  return stiffness;
+}
+
+/**
+ * Radially, a step of the mass at an edge node r0 puts (1/2) [1/m] u(r0)^2 / r0 into <T> (the step part of
+ * (1/2) int u^2 (1/m)' / r dr); the node's DVR function has u(r0)^2 = 1/W there. Zero on the line and for a constant mass.
+ */
+function radialMassStep(ctx: Context, boundaries: number[], index: number, weight: number): number {
+  if (!ctx.profile || ctx.space !== 'radial') return 0;
+  const x = boundaries[index];
+  const offset = 4 * Number.EPSILON * Math.max(Math.abs(x), x - boundaries[index - 1], boundaries[index + 1] - x);
+  const jump = 1 / ctx.profile.value(x + offset) - 1 / ctx.profile.value(x - offset);
+  return jump / (2 * x * weight);
 }
 
 function solve(
@@ -361,7 +436,7 @@ function estimateFrom(ctx: Context, solution: Solution, fallback: StateEstimate)
   // The ground state's kinetic energy <T> = E0 - <V> is the local energy scale even where levels are nearly degenerate.
   const spreadUpTo = (top: number) => {
     const spread = Math.max(top - e0, Number.isFinite(ctx.threshold) ? ctx.threshold - e0 : 0, e0 - meanPotential);
-    return spread > 0 ? spread : 1 / (2 * ctx.mass * width * width);
+    return spread > 0 ? spread : 1 / (2 * ctx.massAt(center) * width * width);
   };
   const second = solution.bound[Math.min(1, solution.bound.length - 1)];
   return { energy, spread: spreadUpTo(energy), settleScale: spreadUpTo(second), center, width };
@@ -378,12 +453,12 @@ function tailEnd(ctx: Context, estimate: StateEstimate, direction: number, depth
   let exponent = 0;
   for (let steps = 0; exponent < depth; steps++) {
     const v = ctx.veff(x);
-    if (Number.isNaN(v)) return { ok: false, message: `the potential is NaN at x = ${x}` };
+    if (Number.isNaN(v)) return { ok: false, message: `the potential is NaN at x = ${ctx.show.length(x)}` };
     if (v === Infinity) return { ok: true, value: x };
-    const kappa2 = 2 * ctx.mass * (v - energy);
+    const kappa2 = 2 * ctx.massAt(x) * (v - energy);
     const distance = Math.abs(x - center);
     if (steps > 100000 || distance > 1e9 * width) {
-      return { ok: false, message: `the tail of the level ${energy} does not decay within ${distance} of x = ${center}` };
+      return { ok: false, message: `the tail of the level ${ctx.show.energy(energy)} does not decay within ${ctx.show.length(distance)} of x = ${ctx.show.length(center)}` };
     }
     // Steps follow the local decay length, or grow with the distance where V - E is nearly zero; an attractive
     // singularity (V = -Infinity) is simply stepped over.
@@ -456,7 +531,7 @@ function sizeDomain(ctx: Context, start: [number, number], first: StateEstimate)
     if (sameDomain(domain, next)) break;
     domain = next;
   }
-  return last ? { ok: true, value: last } : { ok: false, message: `no bound level below the continuum threshold ${ctx.threshold} was found` };
+  return last ? { ok: true, value: last } : { ok: false, message: `no bound level below the continuum threshold ${ctx.show.energy(ctx.threshold)} was found` };
 }
 
 function nextResolution(resolution: Resolution): Resolution {
@@ -526,7 +601,7 @@ function confirmDomain(ctx: Context, refined: Refined, estimate: StateEstimate, 
   const errorEstimate = changes
     ? changes.map((d, i) => Math.max(d, refined.errorEstimate[i]))
     : solved.value.bound.map(() => Infinity);
-  const message = settled ? null : `the levels still move when the domain is extended to [${solved.value.domain.join(', ')}]`;
+  const message = settled ? null : `the levels still move when the domain is extended to [${solved.value.domain.map((x) => ctx.show.length(x)).join(', ')}]`;
   return { ok: true, value: { refined: { solution: solved.value, errorEstimate, converged: settled, message }, retry: !settled } };
 }
 
@@ -558,7 +633,7 @@ function report(ctx: Context, refined: Refined): GridLevels {
   const found = solution.bound.length;
   const shortfall =
     ctx.wantedExplicitly && found < ctx.wanted
-      ? `only ${found} bound level${found === 1 ? '' : 's'} below the continuum threshold ${ctx.threshold}, ${ctx.wanted} asked for`
+      ? `only ${found} bound level${found === 1 ? '' : 's'} below the continuum threshold ${ctx.show.energy(ctx.threshold)}, ${ctx.wanted} asked for`
       : null;
   const message = [shortfall, refined.message, eigenNote].filter((m) => m !== null).join('; ');
   return {
@@ -583,7 +658,7 @@ function report(ctx: Context, refined: Refined): GridLevels {
 }
 
 function validate(problem: GridProblem): string | null {
-  if (!(problem.mass > 0) || !Number.isFinite(problem.mass)) return `mass must be positive and finite, got ${problem.mass}`;
+  if (!problem.massProfile && (!(problem.mass > 0) || !Number.isFinite(problem.mass))) return `mass must be positive and finite, got ${problem.mass}`;
   if (problem.space === 'box') {
     const box = problem.box;
     if (!box || !(box[1] > box[0]) || !box.every(Number.isFinite)) return 'a box problem needs box = [a, b] with a < b';
@@ -617,7 +692,8 @@ export function gridLevels(problem: GridProblem): GridLevels {
   const base: Context = {
     space: problem.space,
     box,
-    mass: problem.mass,
+    massAt: problem.massProfile ? problem.massProfile.value : () => problem.mass,
+    profile: problem.massProfile ?? null,
     veff,
     threshold: NaN,
     breakpoints: problem.breakpoints ?? [],
@@ -626,10 +702,11 @@ export function gridLevels(problem: GridProblem): GridLevels {
     relTol: problem.relTol ?? GRID_DEFAULTS.relTol,
     maxNodes: problem.maxNodes ?? GRID_DEFAULTS.maxNodes,
     counters,
+    show: problem.display ?? ATOMIC_DISPLAY,
   };
   const invalid = validate(problem);
   if (invalid) return failure(base, invalid);
-  const first = initialEstimate(problem, box, veff);
+  const first = initialEstimate(problem, box, veff, base.massAt);
   const ctx: Context = { ...base, threshold: continuumThreshold(base, first) };
   if (Number.isNaN(ctx.threshold)) return failure(ctx, 'the potential is NaN far out, so the continuum threshold is unknown');
   if (ctx.threshold === -Infinity) return failure(ctx, 'the potential is unbounded below at an open end: there are no bound states');

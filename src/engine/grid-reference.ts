@@ -16,12 +16,14 @@ export function gridReference(problem: ProblemBase, breakpoints: number[], hint:
     const grid = gridLevels({
       space: problem.box ? 'box' : problem.space,
       mass: problem.mass,
+      massProfile: problem.massProfile,
       potential: problem.potential,
       angularMomentum: problem.angularMomentum,
       box: problem.box ?? undefined,
       breakpoints,
       hint,
       levels,
+      display: problem.display,
     });
     return { grid, gridError: null, referenceMs: performance.now() - started };
   } catch (error) {

@@ -3,6 +3,7 @@
  * to the lowest several levels at once (Hylleraas & Undheim, Z. Phys. 65, 759 (1930); MacDonald, Phys. Rev.
  * 43, 830 (1933)).
  */
+import { ATOMIC_DISPLAY, type ValueDisplay } from './format.ts';
 import { WALL_TOLERANCE } from './tolerances.ts';
 import { domainOf, splitPoints, type Domain } from './domain.ts';
 import { EXPECTATION_DEFAULTS } from './expectation.ts';
@@ -12,7 +13,7 @@ import type { BasisFunction, LinearBasis, ParameterSpec, ProblemBase } from './p
 import { integrateVector, type IntegrationResult, type IntegrationStatus } from './quadrature.ts';
 import { probeTrial } from './trial-probe.ts';
 
-export interface LinearBasisProblem extends Pick<ProblemBase, 'space' | 'box' | 'angularMomentum' | 'mass' | 'potential'> {
+export interface LinearBasisProblem extends Pick<ProblemBase, 'space' | 'box' | 'angularMomentum' | 'mass' | 'massProfile' | 'potential' | 'display'> {
   basis: LinearBasis;
   /** Interior quadrature split points: kinks or steps of the potential and of the basis functions. */
   breakpoints: number[];
@@ -64,10 +65,14 @@ export interface LinearBasisResult {
   warning: string | null;
   /** The stages below are null when the solve failed before reaching them. */
   overlap: {
-    /** Largest over smallest eigenvalue of S scaled to unit diagonal. */
+    /** Largest over smallest eigenvalue of S scaled to unit diagonal; Infinity when S is singular to rounding. */
     conditionNumber: number;
+    /** The same over the kept directions only: always finite once a direction is kept. */
+    keptConditionNumber: number;
     dropped: number;
     kept: number;
+    /** The conditioning in one phrase, for panels, tables and check details. */
+    summary: string;
     /** Eigenvalues of the unit-diagonal S at or below this were dropped: overlapThreshold * largest or the noise floor. */
     cutoff: number;
     /** How far the quadrature errors of S can move those eigenvalues (Weyl bound). */
@@ -116,7 +121,7 @@ function validate(problem: LinearBasisProblem): void {
   const { basis, states, mass, angularMomentum } = problem;
   if (basis.functions.length === 0) throw new RangeError('solveLinearBasis: the basis is empty');
   if (!Number.isInteger(states) || states < 1) throw new RangeError(`solveLinearBasis: states must be a positive integer, got ${states}`);
-  if (!(mass > 0) || !Number.isFinite(mass)) throw new RangeError(`solveLinearBasis: mass must be positive and finite, got ${mass}`);
+  if (!problem.massProfile && (!(mass > 0) || !Number.isFinite(mass))) throw new RangeError(`solveLinearBasis: mass must be positive and finite, got ${mass}`);
   if (!Number.isInteger(angularMomentum) || angularMomentum < 0) {
     throw new RangeError(`solveLinearBasis: angularMomentum must be a non-negative integer, got ${angularMomentum}`);
   }
@@ -161,13 +166,13 @@ export function solveLinearBasis(
   if (probe.nonFiniteAt !== null) {
     const x = probe.nonFiniteAt;
     const index = functions.findIndex((f) => !Number.isFinite(f.value(x)));
-    return failed('non-finite', `basis[${index}] is not a finite number at ${x} (a function that overflows far out is not square-integrable)`);
+    return failed('non-finite', `basis[${index}] is not a finite number at ${(problem.display ?? ATOMIC_DISPLAY).length(x)} (a function that overflows far out is not square-integrable)`);
   }
-  const wall = wallViolation(functions, domain, probe.peakAmplitude, settings.wallTolerance);
+  const wall = wallViolation(functions, domain, probe.peakAmplitude, settings.wallTolerance, problem.display ?? ATOMIC_DISPLAY);
   if (wall) return failed('hard-wall', wall);
 
   const context: QuadratureContext = {
-    potential, radial: domain.radial, l2: domain.radial ? problem.angularMomentum * (problem.angularMomentum + 1) : 0,
+    potential, inverseMass: problem.massProfile ? inverseOf(problem.massProfile.value) : null, radial: domain.radial, l2: domain.radial ? problem.angularMomentum * (problem.angularMomentum + 1) : 0,
     splits, scale: probe.scale, relTol: settings.relTol, maxIntervals: settings.maxIntervals,
   };
   const integrals = integrateMatrixElements(functions, context);
@@ -183,6 +188,8 @@ export function solveLinearBasis(
   }
   const pairs = (n * (n + 1)) / 2;
   const { values: val, errorEstimates: err } = integrals;
+  // With a position-dependent mass, 1/m(x) sits inside the kinetic integrals already.
+  const twoMass = problem.massProfile ? 2 : 2 * mass;
   const s = square(n);
   const k = square(n);
   const vm = square(n);
@@ -193,11 +200,11 @@ export function solveLinearBasis(
   for (let i = 0; i < n; i++) {
     for (let j = i; j < n; j++) {
       s[i][j] = s[j][i] = val[index];
-      k[i][j] = k[j][i] = val[pairs + index] / (2 * mass);
+      k[i][j] = k[j][i] = val[pairs + index] / twoMass;
       vm[i][j] = vm[j][i] = val[2 * pairs + index];
       h[i][j] = h[j][i] = k[i][j] + vm[i][j];
       sError[i][j] = sError[j][i] = err[index];
-      hError[i][j] = hError[j][i] = err[pairs + index] / (2 * mass) + err[2 * pairs + index];
+      hError[i][j] = hError[j][i] = err[pairs + index] / twoMass + err[2 * pairs + index];
       index++;
     }
   }
@@ -213,8 +220,10 @@ export function solveLinearBasis(
   const eigen = solveGeneralized(h.flat(), s.flat(), n, settings.overlapThreshold, sError.flat());
   const overlapReport = {
     conditionNumber: eigen.conditionNumber,
+    keptConditionNumber: eigen.keptConditionNumber,
     dropped: eigen.dropped,
     kept: n - eigen.dropped,
+    summary: describeConditioning(eigen.conditionNumber, eigen.keptConditionNumber, eigen.dropped, n),
     cutoff: eigen.cutoff,
     noiseFloor: eigen.noiseFloor,
     eigenvalues: Array.from(eigen.overlapEigenvalues),
@@ -236,7 +245,9 @@ export function solveLinearBasis(
     });
   }
   const warnings: string[] = [];
-  if (!(eigen.conditionNumber <= settings.conditionWarning)) {
+  if (!Number.isFinite(eigen.conditionNumber)) {
+    warnings.push('the overlap matrix is numerically singular (its smallest eigenvalue is zero to rounding): some basis functions are linear combinations of the others');
+  } else if (eigen.conditionNumber > settings.conditionWarning) {
     warnings.push(`the overlap matrix is poorly conditioned (condition number ${eigen.conditionNumber.toPrecision(3)} above ${settings.conditionWarning.toPrecision(3)}): the basis is nearly linearly dependent`);
   }
   if (eigen.dropped > 0) {
@@ -245,6 +256,20 @@ export function solveLinearBasis(
   if (count < problem.states) warnings.push(`${problem.states} states asked for, but the basis spans only ${count} independent functions`);
   if (!integrals.converged) warnings.push(`quadrature stopped short (${integrals.message}); its error estimates are included in each level's`);
   return { ...empty, ...common, levels, warning: warnings.length > 0 ? warnings.join('; ') : null };
+}
+
+const inverseOf = (mass: (x: number) => number) => (x: number) => 1 / mass(x);
+
+/**
+ * The overlap matrix's conditioning in words: its condition number when finite, else "numerically singular", and
+ * with dropped directions the condition number of the kept ones, which is what the levels were solved with.
+ */
+export function describeConditioning(conditionNumber: number, keptConditionNumber: number, dropped: number, functions: number): string {
+  const g = (value: number) => value.toPrecision(3);
+  const whole = Number.isFinite(conditionNumber) ? `condition number ${g(conditionNumber)}` : 'numerically singular';
+  if (dropped === 0) return whole;
+  const directions = `${dropped} of ${functions} direction${functions > 1 ? 's' : ''} dropped as near-dependent`;
+  return `${whole}: ${directions}; condition number ${g(keptConditionNumber)} over the ${functions - dropped} kept`;
 }
 
 /** sum_ij c_i c_j M_ij, or when `absolute` sum_ij |c_i c_j M_ij|. */
@@ -259,13 +284,13 @@ function quadraticForm(c: Float64Array, m: number[][], absolute = false): number
   return sum;
 }
 
-function wallViolation(functions: BasisFunction[], domain: Domain, peak: number, tolerance: number): string | null {
+function wallViolation(functions: BasisFunction[], domain: Domain, peak: number, tolerance: number, show: ValueDisplay): string | null {
   for (const wall of domain.walls) {
     for (let i = 0; i < functions.length; i++) {
       const phi = functions[i].value(wall);
       const ratio = Math.abs(phi) / peak;
       if (!(ratio <= tolerance)) {
-        return `basis[${i}] is ${phi.toPrecision(4)} at the wall ${wall} (${ratio.toPrecision(3)} of the basis's peak; every function must vanish there)`;
+        return `basis[${i}] is ${phi.toPrecision(4)} at the wall ${show.length(wall)} (${ratio.toPrecision(3)} of the basis's peak; every function must vanish there)`;
       }
     }
   }
@@ -274,6 +299,8 @@ function wallViolation(functions: BasisFunction[], domain: Domain, peak: number,
 
 interface QuadratureContext {
   potential: (x: number) => number;
+  /** 1/m(x) for a position-dependent mass (BenDaniel–Duke kinetic density phi_i' phi_j' / m), null for a constant one. */
+  inverseMass: ((x: number) => number) | null;
   radial: boolean;
   l2: number;
   splits: number[];
@@ -291,7 +318,7 @@ function integrateMatrixElements(functions: BasisFunction[], context: Quadrature
   const pairs = (n * (n + 1)) / 2;
   const values = new Float64Array(n);
   const slopes = new Float64Array(n);
-  const { potential, radial, l2 } = context;
+  const { potential, inverseMass, radial, l2 } = context;
   const integrand = (x: number, out: Float64Array) => {
     for (let i = 0; i < n; i++) {
       values[i] = functions[i].value(x);
@@ -299,12 +326,13 @@ function integrateMatrixElements(functions: BasisFunction[], context: Quadrature
     }
     const w = radial ? x * x : 1;
     const v = potential(x);
+    const overMass = inverseMass ? inverseMass(x) : 1;
     let k = 0;
     for (let i = 0; i < n; i++) {
       for (let j = i; j < n; j++) {
         const product = values[i] * values[j];
         out[k] = w * product;
-        out[pairs + k] = w * slopes[i] * slopes[j] + l2 * product;
+        out[pairs + k] = inverseMass ? (w * slopes[i] * slopes[j] + l2 * product) * overMass : w * slopes[i] * slopes[j] + l2 * product;
         // Far out the functions underflow to 0 where V may overflow (a Morse wall): the product is 0, not NaN.
         out[2 * pairs + k] = product === 0 ? 0 : w * v * product;
         k++;

@@ -26,12 +26,26 @@ export interface ToleratedValue {
   tolerance: number;
 }
 
+/**
+ * A mass that depends on the coordinate (a heterostructure): the kinetic energy takes the BenDaniel–Duke form
+ * -(hbar^2/2) d/dx (1/m(x)) d/dx. `d1` is the symbolic slope, zero on either side of a step.
+ */
+export interface MassProfile {
+  value(x: number): number;
+  d1(x: number): number;
+  /** Functions whose sign changes mark the steps or kinks of the mass: element edges and quadrature splits. */
+  switches: Array<(x: number) => number>;
+}
+
 /** What every block states besides its trial or basis. */
 export interface ProblemBase {
   space: EngineSpace;
   box: [number, number] | null;
   angularMomentum: number;
+  /** The mass when it is constant; NaN when `massProfile` gives it as a function of the coordinate. */
   mass: number;
+  /** Set when the mass depends on the coordinate; absent or null for a constant mass (the fast path). */
+  massProfile?: MassProfile | null;
   potential: (x: number) => number;
   potentialSwitches: Array<(x: number) => number>;
   parameters: ParameterSpec[];
@@ -41,6 +55,8 @@ export interface ProblemBase {
   plots: ReadonlyArray<'scan' | 'density'>;
   /** How check details state values (default: atomic units). */
   display?: ValueDisplay;
+  /** The level a single trial approximates, when the block declares it (`symmetry`, `level`); default the ground level. */
+  level?: { symmetry: 'even' | 'odd' | null; index: number };
 }
 
 /** A single trial function with parameters: the variational method proper. */

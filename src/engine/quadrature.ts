@@ -12,6 +12,11 @@ export interface IntegrationOptions {
   maxIntervals?: number;
   /** Panels to start from (a previous run's `partition`); ignored unless it has as many segments as these breakpoints make. */
   start?: Partition;
+  /**
+   * How many leading components decide convergence and which panel is bisected (default all); the
+   * rest are integrated along on the same panels, e.g. the error estimates of inner integrals.
+   */
+  tested?: number;
 }
 
 export type IntegrationStatus = 'converged' | 'interval-limit' | 'roundoff' | 'non-finite';
@@ -261,8 +266,8 @@ interface NonFinitePoint {
 /**
  * The panels of one run in flat arrays, and the run's scratch. Per panel and component, `sums` holds
  * the value, the integral of |f| and the error estimate, in that order. Typed arrays beyond a few
- * dozen bytes live outside the heap and cost about a microsecond each to allocate, so one workspace
- * serves every run (a run inside an integrand, which nothing does now, would get its own).
+ * dozen bytes live outside the heap and cost about a microsecond each to allocate, so workspaces are
+ * kept, one per nesting depth: a run inside an integrand (an iterated integral) takes the next one.
  */
 class Panels {
   count = 0;
@@ -274,7 +279,6 @@ class Panels {
   sums = new Float64Array(64 * 9);
   samples = new Float64Array(0);
   point = new Float64Array(0);
-  busy = false;
 
   reset(components: number): this {
     this.count = 0;
@@ -314,7 +318,8 @@ class Panels {
   }
 }
 
-const WORKSPACE = new Panels();
+const WORKSPACES: Panels[] = [];
+let depth = 0;
 
 /**
  * One Gauss–Kronrod panel with the QUADPACK error estimate (Piessens, de Doncker-Kapenga, Überhuber & Kahaner, QUADPACK, Springer 1983, routine QK21),
@@ -445,17 +450,19 @@ export function integrateVector(f: VectorIntegrand, components: number, options:
   if (!(relTol >= 0) || !(absTol >= 0) || relTol + absTol === 0) {
     throw new RangeError('integrateVector: tolerances must be non-negative and not both zero');
   }
+  const tested = options.tested ?? components;
+  if (!Number.isInteger(tested) || tested < 1 || tested > components) throw new RangeError('integrateVector: tested must be an integer from 1 to components');
   const segments = segmentsFrom(options.breakpoints, scale);
   if (!(maxIntervals >= segments.length)) throw new RangeError('integrateVector: maxIntervals is below the number of segments');
 
-  const panels = WORKSPACE.busy ? new Panels() : WORKSPACE;
-  panels.busy = true;
+  if (depth === WORKSPACES.length) WORKSPACES.push(new Panels());
+  const panels = WORKSPACES[depth++];
   try {
     panels.reset(components);
     startingPanels(panels, segments, options.start);
-    return adapt(f, panels, segments, relTol, absTol, maxIntervals);
+    return adapt(f, panels, segments, relTol, absTol, maxIntervals, tested);
   } finally {
-    panels.busy = false;
+    depth--;
   }
 }
 
@@ -496,7 +503,7 @@ function evaluatePanel(f: VectorIntegrand, run: Run, index: number): string | nu
   return `integrand component ${bad.component} returned ${bad.badValue} at x = ${bad.badX}`;
 }
 
-function adapt(f: VectorIntegrand, panels: Panels, segments: Segment[], relTol: number, absTol: number, maxIntervals: number): IntegrationResult {
+function adapt(f: VectorIntegrand, panels: Panels, segments: Segment[], relTol: number, absTol: number, maxIntervals: number, tested: number): IntegrationResult {
   const components = panels.components;
   const run: Run = {
     panels, segments, evaluations: 0,
@@ -529,7 +536,7 @@ function adapt(f: VectorIntegrand, panels: Panels, segments: Segment[], relTol: 
     }
     let converged = true;
     let stuck = -1;
-    for (let k = 0; k < components; k++) {
+    for (let k = 0; k < tested; k++) {
       tolerances[k] = Math.max(absTol, relTol * absValues[k]);
       if (errorEstimates[k] > tolerances[k]) converged = false;
       if (frozenErrors[k] > tolerances[k]) stuck = k;
@@ -546,7 +553,7 @@ function adapt(f: VectorIntegrand, panels: Panels, segments: Segment[], relTol: 
         `component ${stuck}: error ${errorEstimates[stuck]} exceeds tolerance ${tolerances[stuck]} and is concentrated in a panel too narrow to bisect near x = ${where}; the integrand may be singular or discontinuous there`, run);
     }
     if (panels.count >= maxIntervals) {
-      const k = errorEstimates.findIndex((error, i) => error > tolerances[i]);
+      const k = errorEstimates.findIndex((error, i) => i < tested && error > tolerances[i]);
       return failed('interval-limit',
         `component ${k}: error ${errorEstimates[k]} still exceeds tolerance ${tolerances[k]} after ${panels.count} intervals; the integral may diverge, or needs more intervals or breakpoints`, run);
     }
@@ -556,7 +563,7 @@ function adapt(f: VectorIntegrand, panels: Panels, segments: Segment[], relTol: 
     for (let i = 0; i < panels.count; i++) {
       if (panels.frozen[i]) continue;
       let ratio = 0;
-      for (let k = 0; k < components; k++) {
+      for (let k = 0; k < tested; k++) {
         const error = sums[i * stride + 2 * components + k];
         if (error > 0) ratio = Math.max(ratio, tolerances[k] > 0 ? error / tolerances[k] : Infinity);
       }

@@ -1,7 +1,9 @@
 import type { Domain } from './domain.ts';
 import type { Expectation } from './expectation.ts';
-import type { VariationalProblem } from './problem.ts';
+import { ATOMIC_DISPLAY, g } from './format.ts';
+import type { MassProfile, VariationalProblem } from './problem.ts';
 import { integrateVector } from './quadrature.ts';
+import { negligibleAt, type TrialProbe } from './trial-probe.ts';
 
 export interface VarianceResult {
   /** <H^2> - <H>^2, or null when it is infinite or could not be computed (see note). */
@@ -14,7 +16,7 @@ export interface VarianceResult {
 /** A slope jump above this fraction of (peak amplitude / length scale) is a cusp; a smooth slope changes ~1e-7 of it over the probe step. */
 const CUSP_TOLERANCE = 1e-4;
 /** Variances below this fraction of E^2 are rounding noise: they are resolved only to that level. */
-const VARIANCE_FLOOR = 1e-14;
+export const VARIANCE_FLOOR = 1e-14;
 
 /**
  * The energy variance as ||(H - E) psi||^2 / ||psi||^2, which avoids the cancellation of
@@ -25,20 +27,33 @@ export function energyVariance(problem: VariationalProblem, domain: Domain, at: 
   const { splits, partition, norm, energy } = at;
   const { scale, peakAmplitude } = at.probe;
   const { trial, potential, mass } = problem;
-  // A kink of the trial puts a delta function into H psi: the variance is then infinite.
+  const profile = problem.massProfile;
+  // A kink of the trial puts a delta function into H psi: the variance is then infinite. With a mass m(x) the
+  // flux psi'/m is what must be continuous (BenDaniel & Duke, Phys. Rev. 152, 683 (1966)), also across a mass step.
   for (const x of splits) {
     if (!Number.isFinite(x) || x === domain.lo || x === domain.hi) continue;
     const h = 1e-7 * Math.max(scale, Math.abs(x));
-    const jump = Math.abs(trial.d1(x + h) - trial.d1(x - h));
-    if (jump > CUSP_TOLERANCE * (peakAmplitude / scale)) {
-      return { value: null, errorEstimate: 0, note: `the trial's slope jumps at ${x.toPrecision(6)}, so H psi holds a delta function and the variance is infinite`, evaluations: 2 };
+    if (!profile) {
+      const jump = Math.abs(trial.d1(x + h) - trial.d1(x - h));
+      if (jump > CUSP_TOLERANCE * (peakAmplitude / scale)) {
+        return { value: null, errorEstimate: 0, note: `the trial's slope jumps at ${(problem.display ?? ATOMIC_DISPLAY).length(x, 6)}, so H psi holds a delta function and the variance is infinite`, evaluations: 2 };
+      }
+      continue;
+    }
+    const [mLeft, mRight] = [profile.value(x - h), profile.value(x + h)];
+    const jump = Math.abs(trial.d1(x + h) / mRight - trial.d1(x - h) / mLeft);
+    if (jump > (CUSP_TOLERANCE * (peakAmplitude / scale)) / Math.max(mLeft, mRight)) {
+      const where = mLeft === mRight ? "the trial's slope jumps" : `the mass steps from ${g(mLeft, 6)} to ${g(mRight, 6)} and the trial's psi'/m is not continuous (BenDaniel–Duke)`;
+      return { value: null, errorEstimate: 0, note: `at ${(problem.display ?? ATOMIC_DISPLAY).length(x, 6)} ${where}, so H psi holds a delta function and the variance is infinite`, evaluations: 2 };
     }
   }
   const l2 = problem.angularMomentum * (problem.angularMomentum + 1);
-  const integrand = domain.radial
+  const integrand = profile
+    ? massProfileIntegrand(problem, profile, domain.radial, l2, energy, at.probe)
+    : domain.radial
     ? (r: number, out: Float64Array) => {
         const R = trial.value(r);
-        if (R === 0) {
+        if (negligibleAt(at.probe, true, r, R)) {
           out[0] = 0;
           return;
         }
@@ -47,7 +62,7 @@ export function energyVariance(problem: VariationalProblem, domain: Domain, at: 
       }
     : (x: number, out: Float64Array) => {
         const psi = trial.value(x);
-        if (psi === 0) {
+        if (negligibleAt(at.probe, false, x, psi)) {
           out[0] = 0;
           return;
         }
@@ -67,4 +82,25 @@ export function energyVariance(problem: VariationalProblem, domain: Domain, at: 
     };
   }
   return { value: result.values[0] / norm, errorEstimate: result.errorEstimates[0] / norm, note: null, evaluations: result.evaluations };
+}
+
+/**
+ * |(H - E) psi|^2 (radial: times r^2) with the BenDaniel–Duke operator -(1/2) div(grad psi / m):
+ * -(1/2) (psi''/m - m' psi'/m^2) on the line, -(1/2) ((R'' + 2R'/r)/m - m' R'/m^2) + l(l+1) R/(2 m r^2) radially.
+ */
+function massProfileIntegrand(problem: VariationalProblem, profile: MassProfile, radial: boolean, l2: number, energy: number, probe: TrialProbe): (x: number, out: Float64Array) => void {
+  const { trial, potential } = problem;
+  return (x, out) => {
+    const psi = trial.value(x);
+    if (negligibleAt(probe, radial, x, psi)) {
+      out[0] = 0;
+      return;
+    }
+    const m = profile.value(x);
+    const d1 = trial.d1(x);
+    const laplacian = radial ? trial.d2(x) + (2 * d1) / x : trial.d2(x);
+    const centrifugal = radial ? l2 / (2 * m * x * x) : 0;
+    const hPsi = -(laplacian / m - (profile.d1(x) * d1) / (m * m)) / 2 + (centrifugal + potential(x) - energy) * psi;
+    out[0] = (radial ? x * x : 1) * hPsi * hPsi;
+  };
 }

@@ -1,4 +1,5 @@
 import { parse, Unit, type MathNode } from 'mathjs';
+import { nearestName } from '../spec/nearest-name.ts';
 import { treeShape } from './tree-shape.ts';
 
 /** Functions a record may call (RECORD-FORMAT.md); `sign` is ours alone, it only appears in derivatives. */
@@ -17,6 +18,8 @@ export interface NameScope {
   variables: readonly string[];
   /** Names that stand for a number (constants, fixed parameters, built-ins). */
   constants: Readonly<Record<string, number>>;
+  /** Further names a writer may have meant (quantity mode's physical constants): offered in suggestions only. */
+  suggestable?: readonly string[];
 }
 
 export type CheckResult = { ok: true; tree: MathNode } | { ok: false; token: string; message: string };
@@ -41,6 +44,8 @@ export function checkExpression(text: string, scope: NameScope): CheckResult {
   } catch (error) {
     if (error instanceof RangeError) return { ok: false, token: text.slice(0, 20) + '...', message: 'cannot read the expression: it nests too deeply' };
     const message = error instanceof Error ? error.message : String(error);
+    // `**` is the power operator of several programming languages; mathjs reads the second * as a missing value.
+    if (text.includes('**')) return { ok: false, token: '**', message: 'use ^ for powers: write x^2, not x**2' };
     const at = /char (\d+)/.exec(message);
     const token = at ? near(text, Number(at[1]) - 1) : text.slice(0, 40);
     return { ok: false, token, message: `cannot read the expression near "${token}": ${message}` };
@@ -78,8 +83,10 @@ function refuse(node: MathNode, scope: NameScope, context: Context): { token: st
     case 'SymbolNode': {
       const name = any.name as string;
       if (declared(scope, name)) return context === 'value' ? null : notACondition(node);
-      const hint = (RECORD_FUNCTIONS as readonly string[]).includes(name) ? ` (${name} is a function: write ${name}(...))` : '';
-      return { token: name, message: `unknown name ${name}: declare it under parameters or constants${hint}` };
+      if ((RECORD_FUNCTIONS as readonly string[]).includes(name)) return { token: name, message: `unknown name ${name}: ${name} is a function, write ${name}(...)` };
+      const near = nearestName(name, [...scope.variables, ...Object.keys(scope.constants), ...(scope.suggestable ?? [])]);
+      const advice = near === null ? 'declare it under parameters or constants' : `did you mean ${near}? (or declare ${name} under parameters or constants)`;
+      return { token: name, message: `unknown name ${name}: ${advice}` };
     }
     case 'ParenthesisNode':
       return refuse(any.content as MathNode, scope, context);
@@ -107,7 +114,7 @@ function refuse(node: MathNode, scope: NameScope, context: Context): { token: st
       if (fnNode.type !== 'SymbolNode' || !fnNode.name) return { token: node.toString(), message: `only the allowed functions may be called, by name, not ${node.toString()}` };
       const name = fnNode.name;
       if (!(RECORD_FUNCTIONS as readonly string[]).includes(name)) {
-        return { token: name, message: `function ${name} is not allowed; allowed: ${RECORD_FUNCTIONS.join(', ')}` };
+        return { token: name, message: `function ${name} is not allowed${suggest(name, RECORD_FUNCTIONS)}; allowed: ${RECORD_FUNCTIONS.join(', ')}` };
       }
       const args = any.args as MathNode[];
       const arity = ARITY[name] ?? 1;
@@ -120,6 +127,11 @@ function refuse(node: MathNode, scope: NameScope, context: Context): { token: st
       return { token, message: `${describeNode(node.type)} is not allowed in an expression: ${token}` };
     }
   }
+}
+
+function suggest(name: string, candidates: readonly string[]): string {
+  const near = nearestName(name, candidates);
+  return near === null ? '' : ` (did you mean ${near}?)`;
 }
 
 /** Own keys only: inherited names such as constructor or __proto__ are not declarations. */

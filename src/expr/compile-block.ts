@@ -17,6 +17,8 @@ export interface ExpressionProblem {
 export interface BlockTrees {
   coordinate: 'x' | 'r';
   potential: MathNode;
+  /** The mass when it depends on the coordinate; null for a constant mass. */
+  mass: MathNode | null;
   /** The trial, or null for a basis block. */
   trial: MathNode | null;
   /** The basis functions, or null for a trial block. */
@@ -31,6 +33,10 @@ export interface CompiledFunction {
 
 export interface CompiledBlock {
   trees: BlockTrees;
+  /** The constant mass, or NaN when `massProfile` gives it as a function of the coordinate. */
+  mass: number;
+  /** A mass that depends on the coordinate, its symbolic slope, and where it switches branch; null for a constant one. */
+  massProfile: (CompiledFunction & { switches: Array<(x: number) => number> }) | null;
   potential: (x: number) => number;
   potentialSwitches: Array<(x: number) => number>;
   /** Exactly one of trial and basis is set, as the block says. */
@@ -57,8 +63,12 @@ export const MAX_DERIVATIVE_SIZE = 20_000;
 export function compileBlock(spec: BlockSpec): CompileResult {
   const coordinate = spec.space === 'radial' ? 'r' : 'x';
   const varied = spec.varied.map((p) => p.name);
-  const constants: Record<string, number> = { pi: Math.PI, e: Math.E, ...spec.constants, ...spec.fixed, mass: spec.mass, hbar: HBAR };
+  const shared: Record<string, number> = { pi: Math.PI, e: Math.E, ...spec.constants, ...spec.fixed, hbar: HBAR };
   const problems: ExpressionProblem[] = [];
+  const mass = readMass(spec, coordinate, shared);
+  if (!mass.ok) return { ok: false, problems: [mass.problem] };
+  // A mass that depends on the coordinate has no single value for the name `mass` to stand for.
+  const constants: Record<string, number> = mass.tree ? shared : { ...shared, mass: mass.value };
 
   // A trial block has one state function named `trial`; a basis block has `basis[0]`, `basis[1]`, ...
   const states = spec.trial ? [{ field: 'trial', ...spec.trial }] : (spec.basis ?? []).map((b, i) => ({ field: `basis[${i}]`, ...b }));
@@ -69,6 +79,7 @@ export function compileBlock(spec: BlockSpec): CompileResult {
     return null;
   };
   const potentialTree = check('potential', spec.potential.text, spec.potential.line, [coordinate]);
+  const massTree = mass.tree;
   const stateTrees = states.map((f) => check(f.field, f.text, f.line, [coordinate, ...varied]));
   if (!potentialTree || stateTrees.some((t) => t === null)) return { ok: false, problems };
   const trees = stateTrees as MathNode[];
@@ -107,15 +118,34 @@ export function compileBlock(spec: BlockSpec): CompileResult {
     functions.push({ value: at(compile(trees[i])), d1: at(compile(d1Tree)) });
   }
   const switches = trees.flatMap(onCoordinate);
-  const block = { potential: at(compile(potentialTree)), potentialSwitches: onCoordinate(potentialTree) };
+  const massProfile = massTree ? { value: at(compile(massTree)), d1: at(compile(differentiate(massTree, coordinate))), switches: onCoordinate(massTree) } : null;
+  const block = { potential: at(compile(potentialTree)), potentialSwitches: onCoordinate(potentialTree), mass: massTree ? Number.NaN : mass.value, massProfile };
   if (!spec.trial) {
-    return { ok: true, block: { ...block, trees: { coordinate, potential: potentialTree, trial: null, basis: trees }, trial: null, basis: { functions, setParameters, switches } } };
+    return { ok: true, block: { ...block, trees: { coordinate, potential: potentialTree, mass: massTree, trial: null, basis: trees }, trial: null, basis: { functions, setParameters, switches } } };
   }
   const d2Tree = differentiate(d1Trees[0], coordinate);
   const d2Refusal = tooLarge(d2Tree, 'second', states[0]);
   if (d2Refusal) return { ok: false, problems: [d2Refusal] };
   const trial = { ...functions[0], d2: at(compile(d2Tree)), setParameters, switches };
-  return { ok: true, block: { ...block, trees: { coordinate, potential: potentialTree, trial: trees[0], basis: null }, trial, basis: null } };
+  return { ok: true, block: { ...block, trees: { coordinate, potential: potentialTree, mass: massTree, trial: trees[0], basis: null }, trial, basis: null } };
+}
+
+type MassReading = { ok: true; value: number; tree: MathNode | null } | { ok: false; problem: ExpressionProblem };
+
+/**
+ * The mass as a number, or as an expression of the coordinate (in electron masses; a position-dependent mass in the
+ * BenDaniel–Duke kinetic form; the spec layer lets text through only when it names the coordinate). It may use the
+ * constants and fixed parameters, not the varied ones nor itself.
+ */
+function readMass(spec: BlockSpec, coordinate: 'x' | 'r', constants: Record<string, number>): MassReading {
+  if (typeof spec.mass === 'number') return { ok: true, value: spec.mass, tree: null };
+  const { line } = spec.mass;
+  const checked = checkExpression(spec.mass.text, { variables: [coordinate], constants });
+  if (checked.ok) return { ok: true, value: Number.NaN, tree: checked.tree };
+  const message = explain(checked.token, checked.message, spec, coordinate, 'mass');
+  // Often a unit written in an atomic-unit block.
+  const hint = spec.quantity === null && message.startsWith('unknown name') ? '; a mass with a unit, such as 0.067 electronMass, needs quantity mode (units: { length: nm, energy: meV })' : '';
+  return { ok: false, problem: { field: 'mass', line, token: checked.token, message: message + hint } };
 }
 
 function tooLarge(tree: MathNode, order: 'first' | 'second', state: { field: string; line: number }): ExpressionProblem | null {
@@ -130,8 +160,11 @@ function tooLarge(tree: MathNode, order: 'first' | 'second', state: { field: str
 }
 
 function explain(token: string, message: string, spec: BlockSpec, coordinate: string, field: string): string {
-  if (field === 'potential' && spec.varied.some((p) => p.name === token)) {
-    return `the potential may not depend on the varied parameter ${token}; hold it fixed (a plain value under parameters) or move it to constants`;
+  if ((field === 'potential' || field === 'mass') && spec.varied.some((p) => p.name === token)) {
+    return `the ${field} may not depend on the varied parameter ${token}; hold it fixed (a plain value under parameters) or move it to constants`;
+  }
+  if (token === 'mass' && typeof spec.mass !== 'number') {
+    return field === 'mass' ? 'the mass may not refer to itself (mass)' : `the mass depends on the coordinate in this block, so the name mass has no single value; write the number it should stand for`;
   }
   const other = coordinate === 'r' ? 'x' : 'r';
   if (token === other) return `unknown name ${other}: the coordinate of space ${spec.space} is ${coordinate}`;

@@ -1,21 +1,23 @@
 import { readdirSync, statSync } from 'node:fs';
 import { join } from 'node:path';
-import { pathToFileURL } from 'node:url';
 import { performance } from 'node:perf_hooks';
 import type { BlockTask } from './evaluate-task.ts';
 import { inputHash } from './input-hash.ts';
 import { invalidBlock, unparsedBlock } from './invalid-block.ts';
 import { loadLogConfig, type LogConfig } from './log-config.ts';
-import { readRecord, recordResult } from './read-record.ts';
+import { readRecordText, recordResult } from './record-text.ts';
 import { openResultCache, type SpecEntry } from './result-cache.ts';
-import type { BlockResult, LogResult } from './result-types.ts';
-import { TOOL_ROOT } from './tool-root.ts';
+import type { BlockResult, LogResult, RecordResult } from './result-types.ts';
+import type { RecordSpec } from '../spec/types.ts';
+import { toolModule } from './tool-root.ts';
 import { TOOL_VERSION } from './tool-version.ts';
 import { createWorkerPool, type TaskOutcome } from './worker-pool.ts';
 
 // The workers do the evaluating; this thread never loads the evaluator, whose expression library alone
-// takes about a second to load, which a cached run should not pay.
-const TASK_MODULE = pathToFileURL(join(TOOL_ROOT, 'src', 'log', 'evaluate-task.ts'));
+// takes about half a second to load, which a cached run should not pay. Records are parsed here (the
+// parser needs that library too, for quantity-mode blocks), so it is loaded only for a record whose
+// text is not in the cache's record index.
+const TASK_MODULE = toolModule('log/evaluate-task.ts');
 // The expression library the evaluator is built on; workers load it ahead of the TypeScript loader.
 const PRELOAD = ['mathjs'];
 
@@ -51,6 +53,11 @@ export interface CheckLogOptions {
   recompute?: boolean;
   /** Use this configuration instead of reading the root's. */
   config?: LogConfig;
+  /**
+   * The record parser. Without it, it is imported on the first record that is not in the cache; a caller
+   * whose module loader cannot import later (the site's integration, run by Vite) passes it.
+   */
+  parseRecord?: (file: string, text: string) => RecordSpec;
 }
 
 export interface CheckStats {
@@ -70,7 +77,8 @@ export interface CheckStats {
 }
 
 /**
- * Checks every record of a log: records are parsed here, blocks with a stored result are taken from
+ * Checks every record of a log: a record whose text is unchanged comes whole from the cache, others are
+ * parsed here and their blocks with a stored result taken from
  * the cache, the rest are evaluated in a pool of worker threads under the configured limits and then
  * stored. Records and blocks come out in the order of `files` and of the blocks in each file, however
  * the workers finish.
@@ -79,19 +87,29 @@ export async function checkLog(files: string[], options: CheckLogOptions = {}): 
   const root = options.root ?? process.cwd();
   const config = options.config ?? loadLogConfig(root);
   const cache = openResultCache(config.cacheFolder);
-  const read = files.map((file) => readRecord(file, root));
-  const results: BlockResult[][] = read.map((r) => (r.kind === 'parsed' ? new Array(r.spec.blocks.length) : []));
+  // Each record is finished from the cache's record index, or parsed: spec and texts kept for the rest.
+  const done: Array<RecordResult | null> = [];
+  const parsed: Array<{ spec: RecordSpec; text: string } | null> = [];
+  let parseRecord = options.parseRecord;
+  for (const file of files) {
+    const read = readRecordText(file, root);
+    const hit = read.kind === 'unreadable' ? read.result : options.recompute ? null : cache.getRecord(read.name, read.text);
+    done.push(hit);
+    if (hit || read.kind === 'unreadable') parsed.push(null);
+    else {
+      parseRecord ??= (await import('../spec/parse-record.ts')).parseRecord;
+      parsed.push({ spec: parseRecord(read.name, read.text), text: read.text });
+    }
+  }
+  const results: BlockResult[][] = parsed.map((p) => (p ? new Array(p.spec.blocks.length) : []));
   const misses: Array<{ record: number; block: number; file: string; entry: SpecEntry }> = [];
-  read.forEach((r, record) => {
-    if (r.kind === 'unreadable') return;
-    r.spec.blocks.forEach((entry, block) => {
-      // A block that did not parse only needs its problems turned into a result, which is cheap.
-      if (entry.kind === 'invalid') results[record][block] = unparsedBlock(entry);
-      else {
-        const stored = options.recompute ? null : cache.get(r.spec.file, entry);
-        if (stored) results[record][block] = stored;
-        else misses.push({ record, block, file: r.spec.file, entry });
-      }
+  parsed.forEach((p, record) => {
+    p?.spec.blocks.forEach((entry, block) => {
+      const stored = options.recompute ? null : cache.get(p.spec.file, entry);
+      if (stored) results[record][block] = stored;
+      // A block that did not parse only needs its problems turned into a result, which this thread does.
+      else if (entry.kind === 'invalid') results[record][block] = cache.put(entry, unparsedBlock(entry));
+      else misses.push({ record, block, file: p.spec.file, entry });
     });
   });
 
@@ -122,8 +140,9 @@ export async function checkLog(files: string[], options: CheckLogOptions = {}): 
     }
   }
 
-  const records = read.map((r, index) => (r.kind === 'unreadable' ? r.result : recordResult(r.spec, results[index])));
-  const blocks = results.reduce((n, list) => n + list.length, 0);
+  parsed.forEach((p) => p && cache.putRecord(p.text, p.spec));
+  const records = done.map((hit, index) => hit ?? recordResult(parsed[index]!.spec, results[index]));
+  const blocks = records.reduce((n, record) => n + record.blocks.length, 0);
   return {
     log: { tool: { name: 'groundwork', version: TOOL_VERSION }, records },
     stats: { blocks, evaluated: blocks - cache.stats.hits, cached: cache.stats.hits, corrupt: cache.stats.corrupt, timedOut, overMemory, writeErrors: cache.stats.writeErrors, workers: config.workers },

@@ -1,7 +1,8 @@
 import { blockKey } from './build-results.ts';
 import { evaluateBlock } from './evaluate-block.ts';
 import { inputHash } from './input-hash.ts';
-import { readRecord, recordResult } from './read-record.ts';
+import { readRecord } from './read-record.ts';
+import { recordResult } from './record-text.ts';
 import type { ResultCache } from './result-cache.ts';
 import type { BlockResult, RecordResult } from './result-types.ts';
 
@@ -27,8 +28,7 @@ export function checkRecord(file: string, options: CheckRecordOptions = {}): Rec
   return recordResult(
     spec,
     spec.blocks.map((entry) => {
-      if (entry.kind !== 'spec') return evaluateBlock(spec.file, entry);
-      const ran = known?.size ? known.get(blockKey(spec.file, entry.spec.line, inputHash(entry.spec))) : undefined;
+      const ran = known?.size && entry.kind === 'spec' ? known.get(blockKey(spec.file, entry.spec.line, inputHash(entry.spec))) : undefined;
       if (ran) return ran;
       return cache ? (cache.get(spec.file, entry) ?? cache.put(entry, evaluateBlock(spec.file, entry))) : evaluateBlock(spec.file, entry);
     }),

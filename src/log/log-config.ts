@@ -1,6 +1,6 @@
-import { readFileSync } from 'node:fs';
+import { existsSync, readFileSync, statSync } from 'node:fs';
 import os from 'node:os';
-import { join, resolve } from 'node:path';
+import { dirname, join, relative, resolve, sep } from 'node:path';
 import { z } from 'zod';
 
 /** The file at the log root that overrides the defaults below. */
@@ -83,4 +83,30 @@ export function loadLogConfig(root: string): LogConfig {
     workers: set.workers ?? os.availableParallelism(),
     cacheFolder: resolve(root, set.cacheFolder ?? DEFAULTS.cacheFolder),
   };
+}
+
+/**
+ * The log root for a run over `paths`: the nearest folder holding groundwork.config.json at or above the
+ * deepest folder containing every path, so a log kept elsewhere is checked with its own limits and keeps
+ * its own cache wherever the command is started; the working folder when no such file is found.
+ */
+export function findLogRoot(paths: string[], cwd: string): string {
+  const folders = paths.map((path) => {
+    const full = resolve(cwd, path);
+    try {
+      return statSync(full).isDirectory() ? full : dirname(full);
+    } catch {
+      return dirname(full);
+    }
+  });
+  let common = folders[0] ?? cwd;
+  const outside = (folder: string) => {
+    const path = relative(common, folder);
+    return path === '..' || path.startsWith(`..${sep}`);
+  };
+  for (const folder of folders) while (outside(folder)) common = dirname(common);
+  for (let folder = common; ; folder = dirname(folder)) {
+    if (existsSync(join(folder, CONFIG_FILE))) return folder;
+    if (dirname(folder) === folder) return cwd;
+  }
 }

@@ -1,7 +1,8 @@
 import katex from 'katex';
 import type { LastCommit } from '../log/git-audit.ts';
 import type { Provenance } from '../log/provenance.ts';
-import type { BlockResult } from '../log/result-types.ts';
+import { describeLevel } from '../engine/parity.ts';
+import type { BlockInputs, BlockResult } from '../log/result-types.ts';
 import { escapeHtml, formatNumber } from './html.ts';
 import { renderPlots } from './plots.ts';
 
@@ -53,21 +54,42 @@ export function renderBlockPanel(result: BlockResult, context: PanelContext): st
 function renderInputs(result: BlockResult): string {
   const inputs = result.inputs!;
   const q = inputs.coordinate;
-  const kinetic = inputs.space === 'radial' ? `-\\frac{\\hbar^2}{2m}\\frac{1}{r^2}\\frac{d}{dr}r^2\\frac{d}{dr}${inputs.angularMomentum ? `+\\frac{${inputs.angularMomentum * (inputs.angularMomentum + 1)}\\hbar^2}{2m r^2}` : ''}` : `-\\frac{\\hbar^2}{2m}\\frac{d^2}{d${q}^2}`;
-  const where = inputs.box ? `${q} \\in [${inputs.box[0]}, ${inputs.box[1]}]` : inputs.space === 'line' ? `${q} \\in \\mathbb{R}` : `${q} \\ge 0`;
+  const kinetic = inputs.massTex === null ? constantMassKinetic(inputs) : profileKinetic(inputs);
+  // In quantity mode the walls are stated in the block's length unit and the mass in electron masses.
+  const lengthUnit = result.quantity ? `\\ \\mathrm{${inputs.lengthUnit}}` : '';
+  const where = inputs.box ? `${q} \\in [${formatNumber(inputs.box[0], 10)}, ${formatNumber(inputs.box[1], 10)}]${lengthUnit}` : inputs.space === 'line' ? `${q} \\in \\mathbb{R}` : `${q} \\ge 0`;
+  const massTex = inputs.massTex === null ? `m = ${result.quantity ? `${inputs.mass}\\,m_e` : `${inputs.mass}`}` : `m(${q}) = ${inputs.massTex}`;
   const rows = [
-    `<div>${tex(`H = ${kinetic} + ${inputs.potentialTex}, \\quad ${where}, \\quad m = ${inputs.mass}`, true)}</div>`,
+    `<div>${tex(`H = ${kinetic} + ${inputs.potentialTex}, \\quad ${where}, \\quad ${massTex}`, true)}</div>`,
     inputs.trialTex !== null
       ? `<div>${tex(`${inputs.space === 'radial' ? 'R' : '\\psi'}(${q}) = ${inputs.trialTex}`, true)}</div>`
       : `<div>Basis (linear variational method, ${result.states.length} level${result.states.length === 1 ? '' : 's'} reported):${tex(`${inputs.space === 'radial' ? 'R' : '\\psi'}(${q}) = \\sum_i c_i \\phi_i(${q})`, true)}<ol start="0" class="gw-basis">${(inputs.basisTex ?? []).map((b) => `<li>${tex(`\\phi = ${b}`)}</li>`).join('')}</ol></div>`,
   ];
   // Units stay outside the math: they are written as mathjs spells them (nm^-1), not as TeX.
-  const unitOf = (name: string) => (result.parameters[name]?.unit ? ` ${escapeHtml(result.parameters[name].unit!)}` : '');
-  const ranges = inputs.ranges.map((r) => `${tex(`${r.name} \\in [${formatNumber(r.min, 8)}, ${formatNumber(r.max, 8)}]`)}${unitOf(r.name)}, start ${formatNumber(r.start, 8)}`).join('; ');
-  const constants = Object.entries(inputs.constants).map(([k, v]) => tex(`${k} = ${formatNumber(v, 10)}`)).join(', ');
+  // From the block's units rather than the results, so an invalid block's ranges keep theirs too.
+  const unitOf = (name: string) => (result.quantity?.parameters[name]?.unit ? ` ${escapeHtml(result.quantity.parameters[name].unit!)}` : '');
+  const ranges = inputs.ranges.map((r) => `${tex(`${r.name} \\in [${formatNumber(r.min, 8)}, ${formatNumber(r.max, 8)}]`)}${unitOf(r.name)}, start ${formatNumber(r.start, 8)}${unitOf(r.name)}`).join('; ');
+  const constantUnit = (name: string) => (inputs.constantUnits?.[name] ? ` ${escapeHtml(inputs.constantUnits[name]!)}` : '');
+  const constants = Object.entries(inputs.constants).map(([k, v]) => `${tex(`${k} = ${formatNumber(v, 10)}`)}${constantUnit(k)}`).join(', ');
   if (ranges) rows.push(`<p>Varied: ${ranges}</p>`);
   if (constants) rows.push(`<p>Constants: ${constants}</p>`);
   return `<div class="gw-inputs">${rows.join('\n')}</div>`;
+}
+
+function constantMassKinetic(inputs: BlockInputs): string {
+  const l = inputs.angularMomentum;
+  return inputs.space === 'radial'
+    ? `-\\frac{\\hbar^2}{2m}\\frac{1}{r^2}\\frac{d}{dr}r^2\\frac{d}{dr}${l ? `+\\frac{${l * (l + 1)}\\hbar^2}{2m r^2}` : ''}`
+    : `-\\frac{\\hbar^2}{2m}\\frac{d^2}{d${inputs.coordinate}^2}`;
+}
+
+/** The BenDaniel–Duke kinetic operator of a position-dependent mass. */
+function profileKinetic(inputs: BlockInputs): string {
+  const l = inputs.angularMomentum;
+  const q = inputs.coordinate;
+  return inputs.space === 'radial'
+    ? `-\\frac{\\hbar^2}{2}\\frac{1}{r^2}\\frac{d}{dr}\\frac{r^2}{m(r)}\\frac{d}{dr}${l ? `+\\frac{${l * (l + 1)}\\hbar^2}{2m(r) r^2}` : ''}`
+    : `-\\frac{\\hbar^2}{2}\\frac{d}{d${q}}\\frac{1}{m(${q})}\\frac{d}{d${q}}`;
 }
 
 function renderResults(result: BlockResult): string {
@@ -82,8 +104,11 @@ function renderResults(result: BlockResult): string {
     row("Temple's lower bound", formatNumber(result.bounds.lower)),
     row("Weinstein's interval", result.bounds.weinstein ? `[${formatNumber(result.bounds.weinstein[0])}, ${formatNumber(result.bounds.weinstein[1])}]` : '—'),
   ];
+  // Which level the reference stands for, when it is not the ground level (a declared or an odd trial's symmetry, a level index).
+  const level = result.reference && (result.reference.level.symmetry !== null || result.reference.level.index > 0) ? describeLevel(result.reference.level) : null;
   if (result.reference) {
-    rows.push(row(`reference (${result.reference.method})`, `${formatNumber(result.reference.energy)}${result.reference.excited !== null ? `; next level ${formatNumber(result.reference.excited)}` : ''}`));
+    const next = level && result.reference.level.symmetry ? `next ${result.reference.level.symmetry} level` : 'next level';
+    rows.push(row(`reference (${result.reference.method}${level ? `, ${level}` : ''})`, `${formatNumber(result.reference.energy)}${result.reference.excited !== null ? `; ${next} ${formatNumber(result.reference.excited)}` : ''}`));
     if (result.reference.published) rows.push(row('published', `${formatNumber(result.reference.published.energy)} — ${escapeHtml(result.reference.published.source)}`));
   }
   if (result.states.length > 1) {
@@ -92,11 +117,12 @@ function renderResults(result: BlockResult): string {
       rows.push(row(`level ${tex(`E_{${k}}`)} (upper bound)`, `${formatNumber(state.energy)}${error}`));
     });
   }
-  if (result.basis) rows.push(row('overlap matrix', `${result.basis.functions} functions, ${result.basis.kept} kept; condition number ${formatNumber(result.basis.conditionNumber, 3)}`));
-  if (result.errors.vsGrid !== null) rows.push(row('relative error against the grid', formatNumber(result.errors.vsGrid, 3)));
+  if (result.basis) rows.push(row('overlap matrix', `${result.basis.functions} functions, ${result.basis.kept} kept; ${escapeHtml(result.basis.conditioning)}`));
+  if (result.errors.vsGrid !== null) rows.push(row(`relative error against the grid${level ? ` (${level})` : ''}`, formatNumber(result.errors.vsGrid, 3)));
   if (result.errors.vsPublished !== null) rows.push(row('relative error against the published value', formatNumber(result.errors.vsPublished, 3)));
-  if (result.overlap !== null) rows.push(row('overlap with the grid ground state', formatNumber(result.overlap, 8)));
+  if (result.overlap !== null) rows.push(row(`overlap with the grid ${level ? `state of the ${level}` : 'ground state'}`, formatNumber(result.overlap, 8)));
   if (result.virial) rows.push(row(`virial ratio ${tex(`2\\langle T\\rangle / (${result.virial.exponent}\\langle V\\rangle)`)}`, formatNumber(result.virial.ratio, 8)));
+  else if (result.virialNote) rows.push(row('virial ratio', escapeHtml(result.virialNote)));
   if (result.claim?.energy !== null && result.claim) rows.push(row('claimed energy', `${formatNumber(result.claim.energy)} ± ${formatNumber(result.claim.tolerance, 3)}`));
   return `<table class="gw-results"><caption>Recomputed values (${escapeHtml(unit)}); model estimates, not a substitute for the group's validated procedures</caption><tbody>${rows.join('')}</tbody></table>`;
 }
@@ -127,8 +153,8 @@ function renderAudit(result: BlockResult, context: PanelContext): string {
   if (d) {
     items.push(`energy evaluations ${d.energyEvaluations}, trial evaluations ${d.trialEvaluations}, plot evaluations ${d.plotEvaluations}`);
     if (d.optimiser) items.push(`optimiser ${escapeHtml(d.optimiser.method)}: ${d.optimiser.iterations} iterations, ${d.optimiser.evaluations} evaluations, ${d.optimiser.starts} local search${d.optimiser.starts > 1 ? 'es' : ''}, converged ${d.optimiser.converged}`);
-    if (d.grid) items.push(`grid: ${d.grid.size} points, ${d.grid.elements} elements of order ${d.grid.elementOrder}, ${d.grid.refinements} refinements, domain [${formatNumber(d.grid.domain[0], 6)}, ${formatNumber(d.grid.domain[1], 6)}], last change ${d.grid.errorEstimate.map((e) => formatNumber(e, 2)).join(', ')}`);
-    if (d.energyError !== null) items.push(`quadrature error estimate of E ${formatNumber(d.energyError, 3)}`);
+    if (d.grid) items.push(`grid: ${d.grid.size} points, ${d.grid.elements} elements of order ${d.grid.elementOrder}, ${d.grid.refinements} refinements, domain [${formatNumber(d.grid.domain[0], 6)}, ${formatNumber(d.grid.domain[1], 6)}] ${escapeHtml(result.inputs?.lengthUnit ?? 'bohr')}, last change ${d.grid.errorEstimate.map((e) => formatNumber(e, 2)).join(', ')}`);
+    if (d.energyError !== null) items.push(`quadrature error estimate of E ${formatNumber(d.energyError, 3)} ${escapeHtml(result.energy?.unit ?? 'hartree')}`);
   }
   return `<details class="gw-audit"><summary>Audit trail</summary><ul>${items.map((i) => `<li>${i}</li>`).join('')}</ul></details>`;
 }

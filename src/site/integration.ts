@@ -2,6 +2,7 @@ import type { AstroIntegration } from 'astro';
 import { writeBuildResults } from '../log/build-results.ts';
 import { checkLog, collectRecordFiles } from '../log/check-log.ts';
 import { loadLogConfig } from '../log/log-config.ts';
+import { parseRecord } from '../spec/parse-record.ts';
 
 export interface IntegrationOptions {
   /** Folder of the records, relative to the log root. */
@@ -20,7 +21,8 @@ export default function groundwork(options: IntegrationOptions): AstroIntegratio
       'astro:build:start': async ({ logger }) => {
         const { files } = collectRecordFiles([options.records]);
         const config = loadLogConfig(root);
-        const { log, stats } = await checkLog(files, { root, config });
+        // Vite, which runs this module, cannot import anything once the config is loaded: the parser is passed.
+        const { log, stats } = await checkLog(files, { root, config, parseRecord });
         writeBuildResults(config.cacheFolder, log);
         logger.info(`${stats.blocks} blocks: ${stats.evaluated} evaluated, ${stats.cached} from cache (${stats.workers} workers)${stats.corrupt ? `, ${stats.corrupt} damaged cache entries replaced` : ''}${stats.timedOut ? `, ${stats.timedOut} over the time limit` : ''}`);
       },

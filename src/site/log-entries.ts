@@ -1,4 +1,5 @@
 import { getCollection } from 'astro:content';
+import { newestFirst } from './newest-first.ts';
 import { recordPage, type RecordPage } from './record-page.ts';
 
 export interface LogEntry {
@@ -18,5 +19,5 @@ export async function logEntries(): Promise<LogEntry[]> {
     return { id: entry.id, meta: { title: fm.title ?? entry.id, author: fm.author ?? '(no author)', date: fm.date ?? '', tags: fm.tags }, page };
   });
   for (const { page } of rows) for (const warning of page.warnings) console.warn(`groundwork: ${warning}`);
-  return rows.sort((a, b) => (a.meta.date === b.meta.date ? a.id.localeCompare(b.id) : a.meta.date < b.meta.date ? 1 : -1));
+  return rows.sort(newestFirst);
 }

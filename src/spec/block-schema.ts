@@ -12,8 +12,13 @@ const expression = z
   .pipe(z.string().min(1, 'must not be empty'));
 
 // In quantity mode a number may carry a unit ("0.067 electronMass"); in atomic units parse-block refuses such text.
+// `{ value, uncertainty }` is written in the record format but not built yet: say so rather than "must be a number".
+const UNCERTAIN = 'uncertain inputs ({ value, uncertainty }) are not supported yet; write the value alone';
 const numberMessage = (data: unknown, positive: boolean) =>
-  data === undefined ? 'is required' : typeof data !== 'number' ? 'must be a number' : !Number.isFinite(data) ? 'must be a finite number' : positive ? 'must be positive' : 'must be a number';
+  data === undefined ? 'is required' : isUncertain(data) ? UNCERTAIN : typeof data !== 'number' ? 'must be a number' : !Number.isFinite(data) ? 'must be a finite number' : positive ? 'must be positive' : 'must be a number';
+function isUncertain(data: unknown): boolean {
+  return typeof data === 'object' && data !== null && Object.hasOwn(data, 'uncertainty');
+}
 // Text in a numeric field is a quantity such as "2 nm": branded so that code which needs plain numbers cannot miss it.
 const quantityText = z.string().min(1, 'must not be empty').brand<'QuantityText'>();
 export type QuantityText = z.infer<typeof quantityText>;
@@ -22,17 +27,16 @@ const positiveQuantity = z.union([finite.positive('must be positive'), quantityT
   errorMap: (_issue, ctx) => ({ message: numberMessage(ctx.data, true) }),
 });
 
-const range = z
-  .object({ start: quantity, min: quantity, max: quantity }, { invalid_type_error: 'must be a number (held fixed) or { start, min, max } (varied)' })
-  .strict()
-  .superRefine((r, ctx) => {
-    // Quantities with units are compared once converted (units/quantity-block.ts).
-    if (typeof r.start !== 'number' || typeof r.min !== 'number' || typeof r.max !== 'number') return;
-    if (!(r.min < r.max)) ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['max'], message: `max (${r.max}) must be larger than min (${r.min})` });
-    else if (r.start < r.min || r.start > r.max) ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['start'], message: `start (${r.start}) must lie within [${r.min}, ${r.max}]` });
-  });
+const rangeFields = z.object({ start: quantity, min: quantity, max: quantity }, { invalid_type_error: 'must be a number (held fixed) or { start, min, max } (varied)' }).strict();
+const range = rangeFields.superRefine((r, ctx) => {
+  // Quantities with units are compared once converted (units/quantity-block.ts).
+  if (typeof r.start !== 'number' || typeof r.min !== 'number' || typeof r.max !== 'number') return;
+  if (!(r.min < r.max)) ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['max'], message: `max (${r.max}) must be larger than min (${r.min})` });
+  else if (r.start < r.min || r.start > r.max) ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['start'], message: `start (${r.start}) must lie within [${r.min}, ${r.max}]` });
+});
 
-const claimedValue = z.union([quantity, z.object({ value: quantity, tolerance: positiveQuantity }).strict()], {
+const claimedFields = z.object({ value: quantity, tolerance: positiveQuantity }).strict();
+const claimedValue = z.union([quantity, claimedFields], {
   errorMap: () => ({ message: 'must be a number or { value, tolerance }' }),
 });
 
@@ -41,6 +45,17 @@ export const RESERVED_NAMES = ['x', 'r', 'pi', 'e', 'mass', 'hbar'] as const;
 
 export const NAME = /^[A-Za-z][A-Za-z0-9_]*$/;
 const name = z.string().regex(NAME, 'must be a name of letters, digits and _ starting with a letter');
+
+const referenceFields = z
+  .object(
+    { solve: z.boolean({ invalid_type_error: 'must be true or false' }).optional(), energy: quantity.optional(), tolerance: positiveQuantity.optional(), source: z.string({ invalid_type_error: 'must be text (a citation)' }).min(1).optional() },
+    { invalid_type_error: 'must be a map such as { solve: false } or { energy, source }' },
+  )
+  .strict();
+const claimFields = z
+  .object({ energy: quantity.optional(), tolerance: positiveQuantity.optional(), parameters: z.record(name, claimedValue).optional() }, { invalid_type_error: 'must be a map such as { energy, tolerance, parameters }' })
+  .strict();
+const reportFields = z.object({ 'energy-unit': z.string().optional(), plots: z.array(z.enum(['scan', 'density'])).optional() }).strict();
 
 export const blockSchema = z
   .object({
@@ -55,24 +70,28 @@ export const blockSchema = z
     potential: expression,
     trial: expression.optional(),
     basis: z.array(expression).optional(),
+    symmetry: z.enum(['even', 'odd'], { errorMap: () => ({ message: 'must be even or odd' }) }).optional(),
+    level: z.number({ invalid_type_error: 'must be a whole number 0, 1, 2, ...' }).int('must be a whole number 0, 1, 2, ...').min(0, 'must be 0 or more').optional(),
     states: z.number({ invalid_type_error: 'must be a whole number' }).int('must be a whole number').positive('must be 1 or more').max(50, 'at most 50 levels').optional(),
     parameters: z.record(name, z.union([quantity, range])).optional(),
-    reference: z
-      .object(
-        { solve: z.boolean({ invalid_type_error: 'must be true or false' }).optional(), energy: quantity.optional(), tolerance: positiveQuantity.optional(), source: z.string({ invalid_type_error: 'must be text (a citation)' }).min(1).optional() },
-        { invalid_type_error: 'must be a map such as { solve: false } or { energy, source }' },
-      )
-      .strict()
-      .optional(),
-    claim: z
-      .object({ energy: quantity.optional(), tolerance: positiveQuantity.optional(), parameters: z.record(name, claimedValue).optional() }, { invalid_type_error: 'must be a map such as { energy, tolerance, parameters }' })
-      .strict()
-      .optional(),
-    report: z
-      .object({ 'energy-unit': z.string().optional(), plots: z.array(z.enum(['scan', 'density'])).optional() })
-      .strict()
-      .optional(),
+    reference: referenceFields.optional(),
+    claim: claimFields.optional(),
+    report: reportFields.optional(),
   })
   .strict();
 
 export type RawBlock = z.infer<typeof blockSchema>;
+
+/** The fields a map at this path of a block may hold, for suggesting the one a misspelt key meant. */
+export function knownFields(path: readonly (string | number)[]): string[] {
+  const [head, , third] = path;
+  const shape =
+    path.length === 0 ? blockSchema.shape
+    : path.length === 1 && head === 'reference' ? referenceFields.shape
+    : path.length === 1 && head === 'claim' ? claimFields.shape
+    : path.length === 1 && head === 'report' ? reportFields.shape
+    : path.length === 2 && head === 'parameters' ? rangeFields.shape
+    : path.length === 3 && head === 'claim' && path[1] === 'parameters' && third !== undefined ? claimedFields.shape
+    : {};
+  return Object.keys(shape);
+}

@@ -50,26 +50,52 @@ export function splitFrontMatter(file: string, text: string): SplitRecord {
     return { frontMatter: empty, problems, body };
   }
   const fields = data as Record<string, unknown>;
+  const lineOf = (name: string) => fieldLine(doc, name, at);
   const text_ = (name: string): string | null => {
     const value = fields[name];
-    if (value === undefined || value === null) {
-      problems.push({ file, line: 2, block: null, field: name, message: `front matter has no ${name}` });
+    if (value === undefined) {
+      // An absent field has no line of its own; the front matter opens on line 1.
+      problems.push({ file, line: 1, block: null, field: name, message: `front matter has no ${name}` });
+      return null;
+    }
+    if (value === null || value === '') {
+      problems.push({ file, line: lineOf(name), block: null, field: name, message: `front matter ${name} is empty` });
       return null;
     }
     if (value instanceof Date) return value.toISOString().slice(0, 10);
     if (typeof value === 'string' || typeof value === 'number') return String(value);
-    problems.push({ file, line: fieldLine(doc, name, at), block: null, field: name, message: `front matter ${name} must be text` });
+    problems.push({ file, line: lineOf(name), block: null, field: name, message: `front matter ${name} must be text` });
     return null;
   };
   const tags = fields.tags ?? [];
   const tagList = Array.isArray(tags) ? tags.map(String) : [];
   if (!Array.isArray(tags)) {
-    problems.push({ file, line: fieldLine(doc, 'tags', at), block: null, field: 'tags', message: 'front matter tags must be a list, e.g. [trap, anharmonic]' });
+    problems.push({ file, line: lineOf('tags'), block: null, field: 'tags', message: 'front matter tags must be a list, e.g. [trap, anharmonic]' });
   }
-  return { frontMatter: { title: text_('title'), author: text_('author'), date: text_('date'), tags: tagList }, problems, body };
+  const title = text_('title');
+  const author = text_('author');
+  const written = text_('date');
+  // A refused date is dropped rather than kept as text, so the index (newest first) sorts it with the undated.
+  const why = written === null ? null : calendarDateProblem(written);
+  if (why) problems.push({ file, line: lineOf('date'), block: null, field: 'date', message: `front matter date ${why}` });
+  return { frontMatter: { title, author, date: why ? null : written, tags: tagList }, problems, body };
 }
 
+/** Why a written date is not an ISO 8601 calendar date YYYY-MM-DD that exists (Gregorian calendar), or null. */
+export function calendarDateProblem(text: string): string | null {
+  const match = /^(\d{4})-(\d{2})-(\d{2})$/.exec(text);
+  if (!match) return `"${text}" must be written YYYY-MM-DD, e.g. 2026-11-30`;
+  const [year, month, day] = match.slice(1).map(Number);
+  if (month < 1 || month > 12) return `${text} has month ${month}; months run 01 to 12`;
+  // Date.UTC rolls an impossible day over into the next month, which the round trip detects.
+  const roundTrip = new Date(Date.UTC(year, month - 1, day)).toISOString().slice(0, 10);
+  if (day < 1 || roundTrip !== text) return `${text} is not a day of the calendar`;
+  return null;
+}
+
+/** The line of a field's key, so an empty value is reported where it is written. */
 function fieldLine(doc: ReturnType<typeof parseDocument>, name: string, at: (offset: number) => number): number {
-  const node = doc.get(name, true) as { range?: [number, number, number] } | undefined;
-  return node?.range ? at(node.range[0]) : 2;
+  const items = (doc.contents as { items?: Array<{ key?: { value?: unknown; range?: [number, number, number] } }> } | null)?.items ?? [];
+  const pair = items.find((item) => item.key?.value === name);
+  return pair?.key?.range ? at(pair.key.range[0]) : 2;
 }

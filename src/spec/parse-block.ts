@@ -1,8 +1,9 @@
 import { isScalar, LineCounter, parseDocument, type Document } from 'yaml';
 import type { ZodIssue } from 'zod';
-import { blockSchema, RESERVED_NAMES, type QuantityText, type RawBlock } from './block-schema.ts';
+import { blockSchema, knownFields, RESERVED_NAMES, type QuantityText, type RawBlock } from './block-schema.ts';
 import type { FencedBlock } from './find-blocks.ts';
 import type { BlockEntry, BlockSpec, Claimed, SpecProblem } from './types.ts';
+import { didYouMean } from './nearest-name.ts';
 import { writtenPrecision } from './written-precision.ts';
 import { locateYamlError } from './yaml-errors.ts';
 import { convertQuantityBlock, type QuantityBlockSource, type QuantitySource } from '../units/quantity-block.ts';
@@ -53,10 +54,14 @@ export function parseBlock(file: string, fenced: FencedBlock, index: number): Bl
   const parsed = blockSchema.safeParse(data);
   if (!parsed.success) {
     return invalid(
-      parsed.error.issues.flatMap((issue) =>
-        // An unknown key is reported on its own line, under its own name.
-        issue.code === 'unrecognized_keys' ? issue.keys.map((key) => problem([...issue.path, key], `unknown field ${key}`)) : [problem(issue.path, describeIssue(issue))],
-      ),
+      parsed.error.issues.flatMap((issue) => {
+        // An unknown key is reported on its own line, under its own name; in a map that may take several forms
+        // (a varied parameter's range) a misspelt key also explains the field it leaves missing.
+        const unknown = issue.code === 'invalid_union' ? issue.unionErrors.flatMap((e) => e.issues).find((i) => i.code === 'unrecognized_keys') : issue;
+        return unknown?.code === 'unrecognized_keys'
+          ? unknown.keys.map((key) => problem([...unknown.path, key], `unknown field ${key}${didYouMean(key, knownFields(unknown.path))}`))
+          : [problem(issue.path, describeIssue(issue))];
+      }),
     );
   }
   const raw = parsed.data;
@@ -70,12 +75,14 @@ export function parseBlock(file: string, fenced: FencedBlock, index: number): Bl
 }
 
 /** The potential and the trial or basis, each with its line, and how many states a basis reports. */
-function expressions(raw: RawBlock, lineOf: (path: Path) => number): Pick<BlockSpec, 'potential' | 'trial' | 'basis' | 'states'> {
+function expressions(raw: RawBlock, lineOf: (path: Path) => number): Pick<BlockSpec, 'potential' | 'trial' | 'basis' | 'states' | 'level'> {
+  const declared = raw.symmetry !== undefined || raw.level !== undefined;
   return {
     potential: { text: raw.potential, line: lineOf(['potential']) },
     trial: raw.trial === undefined ? null : { text: raw.trial, line: lineOf(['trial']) },
     basis: raw.basis === undefined ? null : raw.basis.map((text, i) => ({ text, line: lineOf(['basis', i]) })),
     states: raw.states ?? 1,
+    ...(declared ? { level: { symmetry: raw.symmetry ?? null, index: raw.level ?? 0, line: lineOf([raw.symmetry !== undefined ? 'symmetry' : 'level']) } } : {}),
   };
 }
 
@@ -110,7 +117,8 @@ function quantityFields(raw: RawBlock): Array<[Path, number | string]> {
 
 /** A block whose numeric fields all hold plain numbers (atomic units; quantityFields has checked them). */
 type Numeric<T> = T extends QuantityText ? never : T extends object ? { [K in keyof T]: Numeric<T[K]> } : T;
-type AtomicBlock = Numeric<RawBlock>;
+// The mass may be text in atomic units too: an expression of the coordinate.
+type AtomicBlock = Omit<Numeric<RawBlock>, 'mass'> & Pick<RawBlock, 'mass'>;
 
 /** The quantity-mode block with every number kept as its written text and line, for the units layer to read. */
 function quantitySource(raw: RawBlock & { units: Record<string, string> }, line: number, doc: Document, lineOf: (path: Path) => number): QuantityBlockSource {
@@ -166,8 +174,12 @@ function meaningProblems(raw: RawBlock): Array<[(string | number)[], string]> {
   const found: Array<[(string | number)[], string]> = [];
   const quantityMode = isQuantityMode(raw);
   if (!quantityMode) {
+    const coordinate = raw.space === 'radial' ? 'r' : 'x';
     for (const [path, value] of quantityFields(raw)) {
-      if (typeof value === 'string') found.push([path, `must be a number in atomic units; ${JSON.stringify(value)} is text (a quantity with a unit needs quantity mode: units: { length: nm, energy: meV })`]);
+      // Text under mass that names the coordinate is a position-dependent mass, read by compileBlock.
+      if (typeof value !== 'string' || (path[0] === 'mass' && namesCoordinate(value, coordinate))) continue;
+      const alternative = path[0] === 'mass' ? ` (or an expression of the coordinate ${coordinate}, for a mass that depends on it)` : '';
+      found.push([path, `must be a number in atomic units${alternative}; ${JSON.stringify(value)} is text (a quantity with a unit needs quantity mode: units: { length: nm, energy: meV })`]);
     }
   }
   if (raw.trial === undefined && raw.basis === undefined) found.push([['trial'], 'the block needs a trial function (trial) or a basis (basis)']);
@@ -175,6 +187,10 @@ function meaningProblems(raw: RawBlock): Array<[(string | number)[], string]> {
   if (raw.basis !== undefined && raw.basis.length === 0) found.push([['basis'], 'the basis needs at least one function']);
   if (raw.states !== undefined && raw.basis === undefined) found.push([['states'], 'states goes with basis: a single trial gives one level']);
   const space = raw.space ?? 'line';
+  for (const field of ['symmetry', 'level'] as const) {
+    if (raw[field] !== undefined && raw.basis !== undefined) found.push([[field], `${field} goes with a single trial: a basis reports its lowest levels (states)`]);
+  }
+  if (raw.symmetry !== undefined && space !== 'line') found.push([['symmetry'], `symmetry (parity under x -> -x) applies to space line only, not ${space}`]);
   if (raw.box !== undefined) {
     if (space !== 'line') found.push([['box'], `box applies to space line only, not ${space}`]);
     else if (typeof raw.box[0] === 'number' && typeof raw.box[1] === 'number' && !(raw.box[0] < raw.box[1])) found.push([['box'], `box [${raw.box[0]}, ${raw.box[1]}] must have its left wall below its right wall`]);
@@ -205,6 +221,11 @@ function meaningProblems(raw: RawBlock): Array<[(string | number)[], string]> {
   return found;
 }
 
+/** Whether the text holds the coordinate as a name of its own (not inside exp or max). */
+function namesCoordinate(text: string, coordinate: 'x' | 'r'): boolean {
+  return new RegExp(`(^|[^A-Za-z0-9_])${coordinate}([^A-Za-z0-9_]|$)`).test(text);
+}
+
 function toSpec(raw: AtomicBlock, line: number, doc: Document, lineOf: (path: (string | number)[]) => number): BlockSpec {
   const claimed = (path: (string | number)[], value: number, tolerance?: number, unitFraction: 0.5 | 1 = 0.5): Claimed => ({
     value,
@@ -228,7 +249,7 @@ function toSpec(raw: AtomicBlock, line: number, doc: Document, lineOf: (path: (s
     space: raw.space ?? 'line',
     box: raw.box ?? null,
     angularMomentum: raw['angular-momentum'] ?? 0,
-    mass: raw.mass ?? 1,
+    mass: typeof raw.mass === 'string' ? { text: raw.mass, line: lineOf(['mass']) } : (raw.mass ?? 1),
     constants: raw.constants ?? {},
     ...expressions(raw, lineOf),
     varied,

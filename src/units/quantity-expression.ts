@@ -2,7 +2,7 @@ import { parse, type MathNode, type SymbolNode } from 'mathjs';
 import { checkExpression, MAX_EXPRESSION_LENGTH } from '../expr/allow-list.ts';
 import { checkDimensions, type DimensionScope } from './check-dimensions.ts';
 import type { DimensionOrAny } from './dimension.ts';
-import { resolvePhysicalName, type PhysicalName } from './physical-names.ts';
+import { PHYSICAL_CONSTANT_NAMES, resolvePhysicalName, type PhysicalName } from './physical-names.ts';
 
 export type AnalysedExpression =
   | { ok: true; tree: MathNode; dimension: DimensionOrAny; physical: Map<string, PhysicalName> }
@@ -16,7 +16,7 @@ export function analyseExpression(text: string, scope: DimensionScope): Analysed
   const constants: Record<string, number> = {};
   for (const [name, c] of Object.entries(scope.constants)) constants[name] = c.atomic;
   for (const name of physicalCandidates(text, scope)) constants[name] = Number.NaN;
-  const checked = checkExpression(text, { variables: Object.keys(scope.variables), constants });
+  const checked = checkExpression(text, { variables: Object.keys(scope.variables), constants, suggestable: PHYSICAL_CONSTANT_NAMES });
   if (!checked.ok) return checked;
   const dimensions = checkDimensions(checked.tree, scope);
   if (!dimensions.ok) return { ok: false, token: dimensions.term, message: dimensions.message };

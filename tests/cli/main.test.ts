@@ -1,4 +1,4 @@
-import { mkdtempSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, mkdtempSync, readdirSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -63,12 +63,81 @@ describe('groundwork check', () => {
     expect(block.checks.every((c: { pass: boolean }) => c.pass)).toBe(true);
   }, 60_000);
 
-  it('refuses unknown options and missing paths with a clear message', async () => {
+  it('refuses unknown options and missing paths with a clear message and exit code 2', async () => {
     expect((await run(['check', '--fast'])).code).toBe(2);
-    const missing = await run(['check', join(dir, 'nope.md')]);
-    expect(missing.code).toBe(1);
-    expect(missing.err).toContain('no such file or folder');
+    const missing = await run(['check', join(dir, 'nope.md'), good]);
+    expect(missing.code).toBe(2);
+    expect(missing.err).toContain('nope.md: no such file or folder');
   });
+
+  it('with --json, puts what stopped the run in the document, not only on stderr', async () => {
+    const missing = await run(['check', join(dir, 'nope.md'), '--json']);
+    expect(missing.code).toBe(2);
+    expect(JSON.parse(missing.out)).toMatchObject({ tool: { name: 'groundwork' }, records: [], errors: [{ path: join(dir, 'nope.md'), message: 'no such file or folder' }] });
+    const option = await run(['check', good, '--json', '--fast']);
+    expect(option.code).toBe(2);
+    expect(JSON.parse(option.out).errors).toEqual([{ path: null, message: 'unknown option --fast' }]);
+    const fine = await run(['check', good, '--json']);
+    expect(JSON.parse(fine.out).errors).toEqual([]);
+  }, 60_000);
+
+  it('exits 2, not 0, when there is nothing to check: an empty folder, or Markdown without any block', async () => {
+    const empty = mkdtempSync(join(dir, 'empty-'));
+    const none = await run(['check', empty]);
+    expect(none.code).toBe(2);
+    expect(none.err).toMatch(/no records \(Markdown files\) found, so nothing was checked/);
+    const prose = mkdtempSync(join(dir, 'prose-'));
+    writeFileSync(join(prose, 'notes.md'), record('Only prose here.\n'));
+    const blockless = await run(['check', prose, '--json']);
+    expect(blockless.code).toBe(2);
+    expect(JSON.parse(blockless.out).errors[0].message).toBe('no variational blocks found in 1 Markdown file, so nothing was checked');
+  });
+
+  it('says in the summary why a folder with a stray Markdown file fails', async () => {
+    const folder = mkdtempSync(join(dir, 'stray-'));
+    writeFileSync(join(folder, 'good.md'), record(oscillator('claim:\n  energy: 0.5\n')));
+    writeFileSync(join(folder, 'NOTES.md'), '# Notes\n\nNot a record: no front matter.\n');
+    const { code, out } = await run(['check', folder]);
+    expect(code).toBe(1);
+    expect(out).toMatch(/NOTES\.md:1 /);
+    expect(out.split('\n').at(-1)).toBe('1 block: 1 confirmed; 1 record has problems of its own (listed above)');
+  }, 60_000);
+
+  it('documents its exit codes in --help', async () => {
+    const { code, out } = await run(['--help']);
+    expect(code).toBe(0);
+    expect(out).toMatch(/^ {2}1 {2}some block is not confirmed/m);
+    expect(out).toMatch(/^ {2}2 {2}the check could not run: a path that does not exist, no records or no blocks found/m);
+  });
+
+  it('takes a block refused before any numerics from the cache on the next run too, so nothing unchanged is evaluated', async () => {
+    const unparsed = join(dir, 'unparsed.md');
+    writeFileSync(unparsed, record(oscillator('claim:\n  energy: 0.5\n') + '\n```variational\nid: odd\npotential: x^2\ntrial: exp(-a*x^2)\nmystery: 1\n```\n'));
+    const first = await run(['check', unparsed]);
+    expect(first.out).toMatch(/odd\s+invalid/);
+    const again = await run(['check', unparsed]);
+    expect(again.code).toBe(1);
+    expect(again.err).toMatch(/^groundwork: 2 blocks, 0 evaluated, 2 from cache \(/);
+    expect(again.out).toMatch(/unparsed\.md:\d+ \[odd\] mystery: /);
+  }, 60_000);
+
+  it('reads the configuration and keeps the cache of a log checked from another folder', async () => {
+    const log = mkdtempSync(join(dir, 'elsewhere-'));
+    mkdirSync(join(log, 'records'));
+    writeFileSync(join(log, 'groundwork.config.json'), JSON.stringify({ cacheFolder: 'results', workers: 1 }));
+    writeFileSync(join(log, 'records', 'good.md'), record(oscillator('claim:\n  energy: 0.5\n')));
+    const elsewhere = mkdtempSync(join(tmpdir(), 'groundwork-cwd-'));
+    process.chdir(elsewhere);
+    try {
+      const { code, err } = await run(['check', join(log, 'records')]);
+      expect(code).toBe(0);
+      expect(err).toMatch(/\(1 worker\)$/);
+      expect(readdirSync(join(log, 'results'))).toHaveLength(1);
+      expect(existsSync(join(elsewhere, '.groundwork-cache'))).toBe(false);
+    } finally {
+      process.chdir(dir);
+    }
+  }, 60_000);
 
   it('refuses a bad groundwork.config.json naming the file and the field', async () => {
     const sub = mkdtempSync(join(dir, 'configured-'));

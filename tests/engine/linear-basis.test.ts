@@ -333,7 +333,8 @@ describe('solveLinearBasis: nearly linearly dependent basis', () => {
     expect(result.overlap!.dropped).toBe(1);
     expect(result.overlap!.kept).toBe(3);
     expect(result.overlap!.conditionNumber).toBeGreaterThan(1e10);
-    expect(result.warning).toMatch(/poorly conditioned/);
+    // At 1e-9 the overlap matrix is singular to rounding (its smallest eigenvalue comes out <= 0), which the warning names.
+    expect(result.warning).toMatch(/poorly conditioned|numerically singular/);
     expect(result.warning).toMatch(/1 of 4 overlap eigenvectors dropped/);
     expect(Math.abs(result.levels[0].energy - 0.5)).toBeLessThan(1e-12);
     expect(Math.abs(result.levels[1].energy - 1.5)).toBeLessThan(1e-12);
@@ -379,5 +380,30 @@ describe('solveLinearBasis: bad bases are refused with the function named', () =
     const zero = solveLinearBasis(base([ground, { value: () => 0, d1: () => 0 }]));
     expect(zero.failure).toBe('zero-function');
     expect(zero.failureDetail).toMatch(/basis\[1\]/);
+  });
+});
+
+describe('solveGeneralized: conditioning of a singular overlap matrix', () => {
+  // Unit-diagonal overlap of {f, f, g} with <f|g>^2 / (<f|f><g|g>) = 7/8 (f = x(1-x), g = x^2(1-x) on [0, 1]:
+  // Beta integrals 1/30, 1/60, 1/105). Closed form: eigenvalues 0 and (3 +/- 2 sqrt 2)/2, so the kept pair has
+  // condition number (3 + 2 sqrt 2)/(3 - 2 sqrt 2) = 17 + 12 sqrt 2.
+  const rho = Math.sqrt(7 / 8);
+  const s = [1, 1, rho, 1, 1, rho, rho, rho, 1];
+  const h = [1, 1, 0.5, 1, 1, 0.5, 0.5, 0.5, 2];
+
+  it('drops the dependent direction and gives the finite condition number of the kept ones', () => {
+    const result = solveGeneralized(h, s, 3);
+    expect(result.dropped).toBe(1);
+    expect(relativeError(result.keptConditionNumber, 17 + 12 * Math.SQRT2)).toBeLessThan(1e-13);
+  });
+
+  it('says so in words: numerically singular, how many dropped, and the kept condition number', async () => {
+    const { describeConditioning } = await import('../../src/engine/linear-basis.ts');
+    const result = solveGeneralized(h, s, 3);
+    const text = describeConditioning(result.conditionNumber, result.keptConditionNumber, result.dropped, 3);
+    // Exact duplicates leave S singular to rounding, so its full condition number is not finite (or beyond 1/eps).
+    if (Number.isFinite(result.conditionNumber)) expect(result.conditionNumber).toBeGreaterThan(1 / EPS);
+    expect(text).toMatch(/: 1 of 3 directions dropped as near-dependent; condition number 34\.0 over the 2 kept$/);
+    expect(text).not.toContain('Infinity');
   });
 });

@@ -170,3 +170,30 @@ describe('checkExpression: refused expressions name the offending token', () => 
     expect(r.token).toContain('constructor');
   });
 });
+
+// Messages that point at the fix. `**` is a power in Python and Fortran, `^` in the mathjs syntax (mathjs docs, "Syntax",
+// operators table); suggestions come from the nearest declared name by edit distance (src/spec/nearest-name.ts).
+describe('checkExpression: refusals that say what to write instead', () => {
+  it('x**2 is told to use ^', () => {
+    const r = refusal('x**2');
+    expect(r.message).toBe('use ^ for powers: write x^2, not x**2');
+    expect(r.token).toBe('**');
+  });
+  it('a misspelt declared name gets the nearest one', () => {
+    const withOmega: NameScope = { variables: ['x'], constants: { ...scope.constants, omega: 2 } };
+    const r = checkExpression('omga^2 * x^2 / 2', withOmega);
+    expect(r.ok).toBe(false);
+    if (!r.ok) expect(r.message).toBe('unknown name omga: did you mean omega? (or declare omga under parameters or constants)');
+  });
+  it('names that are only suggestable (quantity mode constants) are offered but not accepted', () => {
+    const r = checkExpression('elementaryCharg * x', { ...scope, suggestable: ['elementaryCharge', 'electronMass'] });
+    expect(r.ok).toBe(false);
+    if (!r.ok) expect(r.message).toMatch(/^unknown name elementaryCharg: did you mean elementaryCharge\?/);
+  });
+  it('a name close to nothing declared only asks for a declaration', () => {
+    expect(refusal('x * lambda').message).toBe('unknown name lambda: declare it under parameters or constants');
+  });
+  it('a misspelt function gets the nearest allowed one', () => {
+    expect(refusal('exp(-a*x^2) * cosh2(x)').message).toMatch(/^function cosh2 is not allowed \(did you mean cosh\?\); allowed: exp/);
+  });
+});

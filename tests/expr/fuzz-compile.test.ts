@@ -94,7 +94,7 @@ describe('checkExpression on random expressions (allowed and refused constructs 
     expect(seen.tainted).toBeGreaterThan(1000);
     expect(seen.accepted).toBeGreaterThan(500);
     console.info(`fuzz-compile: ${seen.tainted} expressions with a refused construct, ${seen.accepted} accepted, of 5000`);
-  });
+  }, 120_000);
 
   it('never throws on arbitrary text, including control characters and unpaired surrogates (3000 cases)', () => {
     fc.assert(
@@ -104,7 +104,7 @@ describe('checkExpression on random expressions (allowed and refused constructs 
       }),
       { seed: SEED, numRuns: 3000 },
     );
-  });
+  }, 120_000);
 });
 
 describe('compileTree agrees with mathjs on random clean expressions', () => {
@@ -133,7 +133,7 @@ describe('compileTree agrees with mathjs on random clean expressions', () => {
     // Most clean expressions are real-valued at these points, so the comparison is not vacuous.
     expect(compared).toBeGreaterThan(1500);
     console.info(`fuzz-compile: ${compared} of 3000 clean expressions compared with mathjs`);
-  });
+  }, 120_000);
 });
 
 describe('compileBlock on random potentials and trials', () => {
@@ -176,5 +176,5 @@ describe('compileBlock on random potentials and trials', () => {
     );
     expect(compiled).toBeGreaterThan(100);
     console.info(`fuzz-compile: ${compiled} of 1000 random blocks compiled`);
-  });
+  }, 120_000);
 });

@@ -59,7 +59,14 @@ const EXPECTED: Record<string, Expected> = {
   'wrong-type-mass': { blocks: [invalid('mass-d4', 'must be a number', on('mass', 'mass: heavy'))] },
   'wrong-type-potential-list': { blocks: [invalid('potlist-d5', 'must be an expression written as text', on('potential', 'potential: ['))] },
   'wrong-type-box': { blocks: [invalid('box-d6', 'must be [a, b] with two numbers', on('box', 'box: [0]'))] },
-  'unknown-field': { blocks: [invalid('typo-d7', 'unknown field trail', on('trail', 'trail:'))] },
+  // Suggestions: the nearest valid name by edit distance (Damerau 1964); trail -> trial is one transposition.
+  'unknown-field': { blocks: [invalid('typo-d7', 'unknown field trail: did you mean trial?', on('trail', 'trail:'))] },
+  'field-misspelt-potential': { blocks: [invalid('typo-d15', 'unknown field potental: did you mean potential?', on('potential', '```variational'), on('potental', 'potental:'))] },
+  'name-misspelt': { blocks: [invalid('omga-d16', 'unknown name omga: did you mean omega?', on('potential', 'potential: omga'))] },
+  // `^` is the power operator of the mathjs syntax (mathjs docs, "Syntax"); `**` is Python's.
+  'power-double-star': { blocks: [invalid('stars-d14', 'use ^ for powers', on('potential', 'potential: x**2'))] },
+  // The record format lists { value, uncertainty } as a feature still to come.
+  'uncertain-constant': { blocks: [invalid('uncertain-d17', 'uncertain inputs ({ value, uncertainty }) are not supported yet', on('constants.k', '  k: {'))] },
   'unknown-name': { blocks: [invalid('omega-d8', 'unknown name omega', on('potential', 'potential: omega'))] },
   'unknown-function': { blocks: [invalid('gamma-d9', 'function gamma is not allowed', on('trial', 'trial:'))] },
   'bad-id-slug': { blocks: [invalid('dot d10!', 'must be a slug', on('id', 'id: dot d10!'))] },
@@ -90,10 +97,25 @@ const EXPECTED: Record<string, Expected> = {
   // sqrt of a negative number is NaN (IEEE 754; ECMAScript Math.sqrt).
   'nan-potential': { blocks: [invalid('sqrt-w6', 'the potential there is NaN', on('potential', 'potential:'))] },
   'overflowing-potential': { blocks: [invalid('steep-w7', 'the potential there is Infinity', on('potential', 'potential:'))] },
+  // sech(x)^p holds the ground state of -0.5 sech^2 at p = (sqrt 5 - 1)/2 (Poschl-Teller; Landau & Lifshitz §23):
+  // its slope's 0 * Infinity where sech underflows lies where the trial has decayed, and must not stop it.
+  'sech-power-trial': { blocks: [healthy('sech-w12')] },
   'trial-without-coordinate': { blocks: [invalid('flat-w8', 'the trial does not depend on the coordinate x', on('trial', 'trial: exp(-a)'))] },
   'wrong-coordinate': { blocks: [invalid('radial-w9', 'the coordinate of space radial is r', on('trial', 'trial: exp(-a*x)'))] },
   'varied-parameter-unused': { blocks: [invalid('unused-w10', 'parameter b is varied but the trial does not use it', on('parameters.b', '  b: {'))] },
+  // RECORD-FORMAT.md, "Position-dependent mass": positive where the state lives, fixed during the search, a mass.
+  'mass-profile-faults': {
+    blocks: [
+      invalid('negative-j4', 'the mass is -0.092 electron masses', on('mass', 'mass: "x < 1 ? 0.067 : -0.092"')),
+      invalid('varied-j4', 'the mass may not depend on the varied parameter a', on('mass', 'mass: "x < 0 ? 0.067 : a"')),
+      invalid('length-j4', 'the mass must be a mass', on('mass', 'mass: "x < 0 nm')),
+    ],
+  },
   'potential-uses-varied-parameter': { blocks: [invalid('moving-w11', 'the potential may not depend on the varied parameter a', on('potential', 'potential: a*x^2'))] },
+  // Parity under x -> -x (the project's `symmetry` field): it needs a potential even on the line, and the trial must have it.
+  'symmetry-not-in-trial': { blocks: [invalid('parity-t9', 'symmetry: even, but the trial is not even', on('symmetry', 'symmetry: even'))] },
+  'symmetry-uneven-potential': { blocks: [invalid('tilt-t10', 'the potential is not even', on('symmetry', 'symmetry: odd'))] },
+  'symmetry-on-half-line': { blocks: [invalid('half-s3', 'symmetry (parity under x -> -x) applies to space line only, not half-line', on('symmetry', 'symmetry: odd'))] },
   // Ranges, spaces, boxes
   'range-min-above-max': { blocks: [invalid('flipped-s1', 'max (2) must be larger than min (5)', on('parameters.a.max', '  a: {'))] },
   'range-start-outside': { blocks: [invalid('outside-s2', 'start (20) must lie within [0.01, 10]', on('parameters.a.start', '  a: {'))] },
@@ -122,6 +144,8 @@ const EXPECTED: Record<string, Expected> = {
   'front-matter-broken': { record: [{ field: 'title', at: 'title:', message: 'front matter is not valid YAML: Missing closing "quote' }], blocks: [healthy('fm-f1')] },
   'front-matter-missing': { record: [{ field: 'front matter', at: 'Front matter F2', message: 'the record has no YAML front matter' }], blocks: [healthy('fm-f2')] },
   'front-matter-unclosed': { record: [{ field: 'front matter', at: '---', message: 'is never closed' }], blocks: [healthy('fm-f3')] },
+  // ISO 8601 calendar dates have months 01 to 12.
+  'front-matter-bad-date': { record: [{ field: 'date', at: 'date:', message: 'front matter date 2027-13-45 has month 13' }], blocks: [healthy('fm-f5')] },
   'front-matter-wrong-types': {
     record: [
       { field: 'tags', at: 'tags: corpus', message: 'front matter tags must be a list' },
@@ -196,13 +220,13 @@ describe('the broken-record corpus', () => {
     const statuses = names.flatMap((name) => result(name).blocks.map((b) => b.status));
     for (const status of statuses) expect(STATUS_ORDER).toContain(status);
     const count = (s: string) => statuses.filter((t) => t === s).length;
-    // 62 blocks: 54 invalid, 5 healthy (confirmed), one each of disputed, below-reference, unsettled.
+    // 74 blocks: 64 invalid, 7 healthy (confirmed), one each of disputed, below-reference, unsettled.
     expect({ invalid: count('invalid'), 'below-reference': count('below-reference'), unsettled: count('unsettled'), disputed: count('disputed'), confirmed: count('confirmed') }).toEqual({
-      invalid: 54,
+      invalid: 64,
       'below-reference': 1,
       unsettled: 1,
       disputed: 1,
-      confirmed: 5,
+      confirmed: 7,
     });
   });
 });

@@ -19,7 +19,7 @@ const OSCILLATOR = 'id: osc\npotential: x^2/2\ntrial: exp(-a*x^2)\nparameters:\n
 const HYDROGEN = 'id: h1s\nspace: radial\npotential: -1/r\ntrial: exp(-a*r)\nparameters:\n  a: { start: 0.6, min: 0.05, max: 5 }\nclaim:\n  energy: -0.5';
 // Does not vanish at the walls: evaluated, then invalid (and still worth storing).
 const WALL = 'id: wall\nbox: [0, 1]\npotential: "0"\ntrial: exp(-a*x^2)\nparameters:\n  a: { start: 1, min: 0.1, max: 10 }';
-// Does not parse (unknown name b): never stored.
+// Does not parse (unknown field mystery): refused before any numerics, and stored like any result.
 const BROKEN = 'id: broken\npotential: x^2\ntrial: exp(-b*x^2)\nmystery: 1';
 
 /**
@@ -63,14 +63,14 @@ describe('checkLog: parallel and cached', () => {
       ['c.md', ['h1s-again:confirmed']],
     ]);
     expect(stats).toEqual({ blocks: 5, evaluated: 5, cached: 0, corrupt: 0, timedOut: 0, overMemory: 0, writeErrors: 0, workers: 2 });
-    expect(cacheEntries(root)).toHaveLength(4);
+    expect(cacheEntries(root)).toHaveLength(5);
   }, 120_000);
 
-  it('takes every parsed block from the cache on the next run, with the same JSON apart from timings', async () => {
+  it('takes every block, the unparsed one included, from the cache on the next run, with the same JSON apart from timings', async () => {
     const cold = await checkLog(files, { root, config, recompute: true });
     const cached = await checkLog(files, { root, config });
     expect(cold.stats).toMatchObject({ evaluated: 5, cached: 0 });
-    expect(cached.stats).toMatchObject({ evaluated: 1, cached: 4, corrupt: 0 });
+    expect(cached.stats).toMatchObject({ evaluated: 0, cached: 5, corrupt: 0 });
     expect(withoutTimings(cached.log)).toBe(withoutTimings(cold.log));
   }, 120_000);
 
@@ -79,9 +79,9 @@ describe('checkLog: parallel and cached', () => {
     const victim = join(root, '.groundwork-cache', cacheEntries(root)[0]);
     truncateSync(victim, Math.floor(statSync(victim).size / 3));
     const after = await checkLog(files, { root, config });
-    expect(after.stats).toMatchObject({ evaluated: 2, cached: 3, corrupt: 1 });
+    expect(after.stats).toMatchObject({ evaluated: 1, cached: 4, corrupt: 1 });
     expect(withoutTimings(after.log)).toBe(withoutTimings(before.log));
-    expect(cacheEntries(root)).toHaveLength(4);
+    expect(cacheEntries(root)).toHaveLength(5);
   }, 120_000);
 
   it('names an unreadable record and checks the others', async () => {

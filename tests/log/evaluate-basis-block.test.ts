@@ -71,3 +71,36 @@ describe('the linear variational method through the whole evaluation', () => {
     expect(result.message).toMatch(/basis\[1\]|wall/);
   });
 });
+
+describe('a basis with dependent functions', () => {
+  // f = x(1-x), g = x^2(1-x) on [0, 1]; overlaps are Beta integrals B(a+1, b+1) = a! b!/(a+b+1)!:
+  // <f|f> = 1/30, <f|g> = 1/60, <g|g> = 1/105 (Abramowitz & Stegun 6.2.1-6.2.2).
+  const ff = 1 / 30;
+  const fg = 1 / 60;
+  const gg = 1 / 105;
+
+  it('two identical functions: numerically singular, one direction dropped, the kept conditioning finite', () => {
+    const result = run(`id: twice\nbox: [0, 1]\npotential: 0\nbasis:\n  - x*(1 - x)\n  - x*(1 - x)\n  - x^2*(1 - x)\nstates: 2`);
+    expect(result.status).toBe('confirmed');
+    expect(result.basis).toMatchObject({ functions: 3, kept: 2, dropped: 1, conditionNumber: null });
+    // Kept pair {f, g}: unit-diagonal overlap eigenvalues (3 +/- 2 sqrt 2)/2 with rho^2 = fg^2/(ff gg) = 7/8.
+    expect(fg ** 2 / (ff * gg)).toBeCloseTo(7 / 8, 14);
+    expect(Math.abs(result.basis!.keptConditionNumber - (17 + 12 * Math.SQRT2)) / 34).toBeLessThan(1e-8);
+    expect(result.basis!.conditioning).toBe('numerically singular: 1 of 3 directions dropped as near-dependent; condition number 34.0 over the 2 kept');
+    expect(JSON.stringify(result)).not.toMatch(/Infinity/);
+    // The box ground level pi^2/2 (Griffiths 2.2) is still bounded from above by the kept span.
+    expect(result.energy!.value).toBeGreaterThanOrEqual((Math.PI * Math.PI) / 2);
+  });
+
+  it('two nearly dependent functions: the finite condition number of the 2 x 2 overlap matrix', () => {
+    // f and f + d g: unit-diagonal off-diagonal c = <f|f+dg>/sqrt(<f|f><f+dg|f+dg>); eigenvalues 1 +/- c.
+    const d = 1e-3;
+    const c = (ff + d * fg) / Math.sqrt(ff * (ff + 2 * d * fg + d * d * gg));
+    const exact = (1 + c) / (1 - c);
+    const result = run(`id: close\nbox: [0, 1]\npotential: 0\nbasis:\n  - x*(1 - x)\n  - x*(1 - x) + ${d}*x^2*(1 - x)\nstates: 1`);
+    expect(result.basis!.dropped).toBe(0);
+    // 1 - c is about 1e-7: rounding of S (1e-16) moves it by about 1e-9 relative.
+    expect(Math.abs(result.basis!.conditionNumber! - exact) / exact).toBeLessThan(1e-6);
+    expect(result.basis!.conditioning).toBe(`condition number ${exact.toPrecision(3)}`);
+  });
+});

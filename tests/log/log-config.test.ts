@@ -1,8 +1,8 @@
-import { mkdtempSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
 import os from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { CONFIG_FILE, DEFAULTS, LogConfigError, loadLogConfig } from '../../src/log/log-config.ts';
+import { CONFIG_FILE, DEFAULTS, findLogRoot, LogConfigError, loadLogConfig } from '../../src/log/log-config.ts';
 
 function logRoot(config?: string): string {
   const root = mkdtempSync(join(os.tmpdir(), 'groundwork-config-'));
@@ -51,5 +51,16 @@ describe('log configuration', () => {
     expect(unknown.message).toMatch(/unknown field \(known: timeLimitSeconds, memoryLimitMb, workers, cacheFolder\)/);
     expect(refusal('{ "workers": 2, }').message).toMatch(new RegExp(`${CONFIG_FILE}: is not valid JSON`));
     expect(refusal('[1, 2]').message).toMatch(/must be a JSON object of fields/);
+  });
+
+  it('finds the log root from the paths checked: the nearest folder above them holding the file, else the working folder', () => {
+    const log = logRoot('{}');
+    mkdirSync(join(log, 'records', 'old'), { recursive: true });
+    writeFileSync(join(log, 'records', 'a.md'), '');
+    const elsewhere = logRoot();
+    expect(findLogRoot([join(log, 'records', 'a.md'), join(log, 'records', 'old')], elsewhere)).toBe(log);
+    expect(findLogRoot(['records'], log)).toBe(log);
+    expect(findLogRoot([join(log, 'records'), elsewhere], elsewhere)).toBe(elsewhere);
+    expect(findLogRoot([], log)).toBe(log);
   });
 });

@@ -1,5 +1,5 @@
 import { spawnSync } from 'node:child_process';
-import { mkdirSync, mkdtempSync, readdirSync, readFileSync, statSync, truncateSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync, truncateSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { basename, dirname, join } from 'node:path';
 import { describe, expect, it } from 'vitest';
@@ -128,5 +128,45 @@ describe('results cache', () => {
     expect(withoutTimings(cache.put(entry, result))).toBe(withoutTimings(result));
     expect(cache.get('a.md', entry)).toBeNull();
     expect(cache.stats).toMatchObject({ writeErrors: 1, hits: 0 });
+  });
+
+  it('stores a block that did not parse, keyed so that a repeated id never takes the result of a lone one', () => {
+    const cache = openResultCache(folder());
+    // The unknown field makes the block invalid at parsing; the second copy in `twice` is a repeated id as well.
+    const odd = 'id: odd\npotential: x^2\ntrial: exp(-a*x^2)\nmystery: 1';
+    const alone = parseRecord('a.md', record('Prose.', odd)).blocks[0];
+    const twice = parseRecord('b.md', record('Prose.', odd) + '\n```variational\n' + odd + '\n```\n').blocks;
+    expect([alone.kind, twice[0].kind, twice[1].kind]).toEqual(['invalid', 'invalid', 'invalid']);
+    const stored = cache.put(alone, evaluateBlock('a.md', alone));
+    expect(stored.problems[0]).toMatchObject({ field: 'mystery' });
+    expect(cache.get('a.md', alone)).toEqual(stored);
+    expect(cache.get('b.md', twice[0])).toMatchObject({ id: 'odd', problems: [{ file: 'b.md', field: 'mystery' }] });
+    expect(cache.get('b.md', twice[1])).toBeNull();
+    expect(cache.stats).toMatchObject({ hits: 2, misses: 1 });
+  });
+
+  it('gives a record whose text is unchanged back whole from its index, and nothing for a changed one', () => {
+    const cache = openResultCache(folder());
+    const text = record('Prose.', WALL);
+    const spec = parseRecord('w.md', text);
+    const results = spec.blocks.map((entry) => cache.put(entry, evaluateBlock('w.md', entry)));
+    expect(cache.getRecord('w.md', text)).toBeNull();
+    cache.putRecord(text, spec);
+    const whole = cache.getRecord('w.md', text);
+    expect(whole).toEqual({ file: 'w.md', title: 'cache', frontMatter: spec.frontMatter, problems: spec.problems, blocks: results });
+    expect(cache.getRecord('w.md', text.replace('Prose.', 'Prose edited.'))).toBeNull();
+    expect(cache.getRecord('renamed.md', text)).toBeNull();
+    expect(cache.stats.hits).toBe(1);
+  });
+
+  it('parses a record again when one of the results its index names is gone', () => {
+    const cache = openResultCache(folder());
+    const text = record('Prose.', OSCILLATOR);
+    const spec = parseRecord('o.md', text);
+    for (const entry of spec.blocks) cache.put(entry, evaluateBlock('o.md', entry));
+    cache.putRecord(text, spec);
+    rmSync(cache.entryPath(spec.blocks[0]));
+    expect(cache.getRecord('o.md', text)).toBeNull();
+    expect(cache.stats.hits).toBe(0);
   });
 });

@@ -181,6 +181,16 @@ describe('parseRecord: blocks that are refused', () => {
     expect(p[0].line).toBe(lineWhere(text, (l) => l.startsWith('mass:')));
   });
 
+  it('a mass that names the coordinate is kept as an expression with its line; other text stays refused', () => {
+    const text = record('id: w1\nmass: "x < 0 ? 0.067 : 0.092"\npotential: x^2/2\ntrial: exp(-x^2)\n');
+    expect(spec(parseRecord(FILE, text).blocks[0]).mass).toEqual({ text: 'x < 0 ? 0.067 : 0.092', line: lineWhere(text, (l) => l.startsWith('mass:')) });
+    // exp names no coordinate of its own: a word that merely contains x is not an expression of x.
+    const p = problems(one(minimal('mass: "exp(1)"\n')));
+    expect(p[0].message).toMatch(/must be a number in atomic units \(or an expression of the coordinate x/);
+    // On the radial space the coordinate is r.
+    expect(problems(one(minimal('space: radial\nmass: "x < 1 ? 1 : 2"\n')))[0].field).toBe('mass');
+  });
+
   it('a negative mass is refused as not positive', () => {
     const p = problems(one('id: w2\nmass: -1\npotential: x^2/2\ntrial: exp(-x^2)\n'));
     expect(p).toHaveLength(1);
@@ -307,5 +317,43 @@ describe('parseRecord: the tolerance a written number implies', () => {
     expect(s.reference.energy?.value).toBe(1.0603620904);
     expect(s.reference.energy!.tolerance).toBeGreaterThan(0.99e-10);
     expect(s.reference.energy!.tolerance).toBeLessThan(1.01e-10);
+  });
+});
+
+// Suggestions come from the nearest valid name by edit distance (src/spec/nearest-name.ts, Damerau 1964);
+// the valid names are the record format's field table (docs/record-format.md).
+describe('parseRecord: misspelt fields get the nearest valid one', () => {
+  it.each([
+    ['a top-level field', 'id: t1\npotental: x^2/2\ntrial: exp(-x^2)\n', 'potental', 'unknown field potental: did you mean potential?'],
+    ['a field of reference', minimal('reference:\n  sorce: "a textbook"\n  energy: 0.5\n'), 'reference.sorce', 'unknown field sorce: did you mean source?'],
+    ['a field of claim', minimal('claim:\n  energy: 0.5\n  tolerence: 0.01\n'), 'claim.tolerence', 'unknown field tolerence: did you mean tolerance?'],
+    ['a field of a varied parameter', 'id: t1\npotential: x^2/2\ntrial: exp(-a*x^2)\nparameters:\n  a: { strat: 0.5, min: 0.01, max: 10 }\n', 'parameters.a.strat', 'unknown field strat: did you mean start?'],
+  ])('%s', (_what, body, field, message) => {
+    const p = problems(one(body));
+    expect(p).toContainEqual(expect.objectContaining({ field, message }));
+  });
+
+  it('offers nothing when no field is close', () => {
+    const p = problems(one(minimal('colour: blue\n')));
+    expect(p).toContainEqual(expect.objectContaining({ field: 'colour', message: 'unknown field colour' }));
+  });
+});
+
+// The record format lists `{ value, uncertainty }` for a constant or the mass as a later feature (docs/record-format.md).
+describe('parseRecord: uncertain inputs are refused as not supported yet', () => {
+  it.each([
+    ['a constant', minimal('constants:\n  k: { value: 3, uncertainty: 0.1 }\n'), 'constants.k'],
+    ['the mass', minimal('mass: { value: 1, uncertainty: 0.01 }\n'), 'mass'],
+  ])('%s', (_what, body, field) => {
+    const p = problems(one(body));
+    expect(p).toEqual([expect.objectContaining({ field, message: expect.stringContaining('uncertain inputs ({ value, uncertainty }) are not supported yet') })]);
+  });
+});
+
+describe('parseRecord: a misspelt physical constant in quantity mode gets the mathjs name', () => {
+  it('elementaryCharg -> elementaryCharge', () => {
+    const body = 'id: q1\nunits: { length: nm, energy: meV }\nspace: radial\npotential: -elementaryCharg^2 / (4 pi electricConstant 12.9 r)\ntrial: exp(-r / b)\nparameters:\n  b: { start: 5 nm, min: 0.5 nm, max: 50 nm }\n';
+    const p = problems(one(body));
+    expect(p).toEqual([expect.objectContaining({ field: 'potential', message: expect.stringMatching(/^unknown name elementaryCharg: did you mean elementaryCharge\?/) })]);
   });
 });

@@ -239,6 +239,12 @@ describe('blocks whose dimensions disagree are refused, naming the term and the 
     expect(problem.message).toContain('the elementary charge is elementaryCharge');
   });
 
+  it('rydberg in the potential gets a hint: in an expression it is the constant R_inf, not the energy', () => {
+    const [problem] = problemsOf(oscillator({ potential: at('-1 rydberg * (x / (1 nm))^2', 17) }));
+    expect(problem.field).toBe('potential');
+    expect(problem.message).toMatch(/must be an energy.*the Rydberg energy is 0\.5 hartree/);
+  });
+
   it('reports every problem of a block at once, each in its own field', () => {
     const problems = problemsOf(
       donor({
@@ -248,7 +254,9 @@ describe('blocks whose dimensions disagree are refused, naming the term and the 
       }),
     );
     expect(problems.map((p) => p.field).sort()).toEqual(['parameters.a', 'potential', 'units.energy', 'units.length', 'units.time']);
-    expect(problems.find((p) => p.field === 'units.energy')!.message).toContain('meV, eV, hartree, rydberg, cm^-1, K, THz');
+    const energy = problems.find((p) => p.field === 'units.energy')!;
+    expect(energy.line).toBe(12);
+    expect(energy.message).toMatch(/^kcal is not a unit quantity mode knows; write an energy unit .*cm\^-1/);
   });
 
   it('a start outside its range and a non-positive mass', () => {
@@ -259,5 +267,28 @@ describe('blocks whose dimensions disagree are refused, naming the term and the 
       ['mass', 14],
       ['parameters.a.start', 20],
     ]);
+  });
+});
+
+describe('a mass that depends on the coordinate in quantity mode', () => {
+  it('passes the expression on with its line and binds the units it names to their atomic values', () => {
+    const result = converted(oscillator({ mass: at('x < 0 nm ? 0.067 electronMass : 0.092 electronMass', 14), potential: at('0.5 meV nm^-2 x^2', 17) }));
+    expect(result.spec.mass).toEqual({ text: 'x < 0 nm ? 0.067 electronMass : 0.092 electronMass', line: 14 });
+    // 1 nm = 18.897261246 bohr (NIST CODATA 2018 Bohr radius 5.29177210903e-11 m); electronMass is the atomic unit of mass.
+    expect(relative(result.bound.nm, 1 / 0.0529177210903)).toBeLessThan(1e-9);
+    expect(result.bound.electronMass).toBe(1);
+  });
+
+  it('refuses one that is not a mass, one that depends on a varied parameter, and the name mass elsewhere', () => {
+    const potential = at('0.5 meV nm^-2 x^2', 17);
+    const length = problemsOf(oscillator({ mass: at('x < 0 nm ? 0.067 nm : 0.092 nm', 14), potential }));
+    expect(length[0]).toMatchObject({ field: 'mass', line: 14 });
+    expect(length[0].message).toMatch(/the mass must be a mass \(or a number of electron masses\), but .* is a length/);
+    const varied = problemsOf(oscillator({ mass: at('x < 0 nm ? 0.067 electronMass : 0.092 electronMass * a * (1 nm^2)', 14), potential }));
+    expect(varied[0].message).toMatch(/may not depend on the varied parameter a/);
+    // The oscillator's potential uses the name mass, which has no single value once the mass depends on x.
+    const named = problemsOf(oscillator({ mass: at('x < 0 nm ? 0.067 electronMass : 0.092 electronMass', 14) }));
+    expect(named[0]).toMatchObject({ field: 'potential', line: 17 });
+    expect(named[0].message).toMatch(/the name mass has no single value/);
   });
 });
