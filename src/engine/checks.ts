@@ -1,4 +1,5 @@
-import { ATOMIC_DISPLAY, g } from './format.ts';
+import { eckartOverlapFloor } from './bounds.ts';
+import { ATOMIC_DISPLAY, g, type ValueDisplay } from './format.ts';
 import type { GridLevels } from './grid-levels.ts';
 import type { MinimizeResult } from './minimize.ts';
 import { describeLevel, GROUND_LEVEL, type TargetLevel } from './parity.ts';
@@ -131,6 +132,38 @@ export function claimChecks(problem: CheckedProblem, energy: number, best: numbe
         off <= claimed.tolerance,
         `claimed ${name} = ${show.parameter(name, claimed.value)} +/- ${show.parameter(name, claimed.tolerance, 3)}, optimum ${show.parameter(name, value)} (off by ${show.parameter(name, off, 3)})`,
         'disputed',
+      ),
+    );
+  }
+  return checks;
+}
+
+/**
+ * Temple's bound against the targeted grid level e0, and Eckart's overlap floor. Restricted to the states of one parity,
+ * Temple's bound holds for the level below the next one of that parity, and Eckart's for the lowest level of that parity
+ * with E1 the next; above the lowest level Eckart's criterion says nothing, so it is left out.
+ */
+export function boundChecks(energy: number, lower: number | null, overlap: number | null, e0: number, target: TargetLevel, nextLevel: number | null, tolerance: number, show: ValueDisplay): GradedCheck[] {
+  const checks: GradedCheck[] = [];
+  if (lower !== null) {
+    checks.push(
+      gradedCheck(
+        'temple-below-grid',
+        lower <= e0 + tolerance,
+        `Temple's lower bound ${show.energy(lower)} against ${gridLevelName(target)} ${show.energy(e0)} (with E1 = ${show.energy(nextLevel ?? NaN)})`,
+        'unsettled',
+      ),
+    );
+  }
+  const floor = target.index === 0 ? eckartOverlapFloor(energy, e0, nextLevel) : null;
+  if (overlap !== null && floor !== null) {
+    const state = target.symmetry === null ? 'ground state' : `state of the ${describeLevel(target)}`;
+    checks.push(
+      gradedCheck(
+        'eckart-overlap',
+        overlap >= floor - 1e-6,
+        `overlap with the grid ${state} ${g(overlap, 8)} (Eckart's floor ${g(floor, 8)})`,
+        'unsettled',
       ),
     );
   }
