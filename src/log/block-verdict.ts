@@ -1,0 +1,63 @@
+import type { BlockResult, LogResult } from './result-types.ts';
+
+/**
+ * What a reviewer needs to trust a block, as numbers: its status and why, the gap to the reference, the bracket
+ * the bounds give, the claim against the recomputation and how many checks pass. Derived from the result (so
+ * cached results carry it too) and stated in the block's energy unit.
+ */
+export interface Verdict {
+  status: BlockResult['status'];
+  /** Why the block has its status: the failing checks' details, or what a confirmed block was confirmed against. */
+  reason: string;
+  /** The resolution E is worth writing to: the finest of the gap, the claim's tolerance, the quadrature error. */
+  resolution: number | null;
+  /** E - E_ref against the reference the status was decided on (the grid level, else the published value). */
+  gap: { reference: number; method: 'grid' | 'published'; absolute: number; relative: number | null } | null;
+  /** [best lower bound, E]: the lower end is the highest valid lower bound, named. */
+  bracket: { lower: number; upper: number; width: number; lowerFrom: 'Temple' | 'Weinstein' } | null;
+  /** The claimed energy against the recomputation; null when the block claims no energy. */
+  claim: { energy: number; tolerance: number; difference: number; agrees: boolean } | null;
+  checks: { passed: number; total: number };
+}
+
+export function blockVerdict(result: BlockResult): Verdict {
+  const E = result.energy?.value ?? null;
+  const passed = result.checks.filter((c) => c.pass).length;
+  const ref = result.reference;
+  const gap =
+    E !== null && ref?.energy !== null && ref?.energy !== undefined && ref.method !== null
+      ? { reference: ref.energy, method: ref.method, absolute: E - ref.energy, relative: ref.energy === 0 ? null : (E - ref.energy) / Math.abs(ref.energy) }
+      : null;
+  const lowers: Array<[number, 'Temple' | 'Weinstein']> = [];
+  if (result.bounds.lower !== null) lowers.push([result.bounds.lower, 'Temple']);
+  if (result.bounds.weinstein) lowers.push([result.bounds.weinstein[0], 'Weinstein']);
+  // The highest lower bound is the best; a bound above E could only come from rounding and is no bound.
+  const best = lowers.filter(([v]) => E !== null && v <= E).sort((a, b) => b[0] - a[0])[0];
+  const bracket = E !== null && best ? { lower: best[0], upper: E, width: E - best[0], lowerFrom: best[1] } : null;
+  const claimed = result.claim?.energy ?? null;
+  const claim =
+    E !== null && claimed !== null && result.claim?.tolerance !== null && result.claim?.tolerance !== undefined
+      ? { energy: claimed, tolerance: result.claim.tolerance, difference: E - claimed, agrees: Math.abs(E - claimed) <= result.claim.tolerance }
+      : null;
+  const candidates = [gap && Math.abs(gap.absolute) / 10, claim && claim.tolerance / 10, result.diagnostics?.energyError ?? null].filter((v): v is number => v !== null && v > 0 && Number.isFinite(v));
+  const floor = result.diagnostics?.energyError && result.diagnostics.energyError > 0 ? result.diagnostics.energyError : 0;
+  const resolution = candidates.length > 0 ? Math.max(Math.min(...candidates), floor, E !== null ? Math.abs(E) * 1e-12 : 0) : null;
+  return { status: result.status, reason: reasonOf(result, gap, claim), resolution, gap, bracket, claim, checks: { passed, total: result.checks.length } };
+}
+
+function reasonOf(result: BlockResult, gap: Verdict['gap'], claim: Verdict['claim']): string {
+  if (result.status !== 'confirmed') return result.message ?? result.problems.map((p) => p.message).join('; ') ?? result.status;
+  const against = gap ? `at or above the ${gap.method === 'grid' ? 'grid' : 'published'} reference` : 'no reference to compare with';
+  return `${against}; ${claim ? 'the claim agrees' : 'no claim made'}; every check passes`;
+}
+
+/** The log with each block's verdict beside it, as `check --json` and the record JSON give it; plot samples only when asked. */
+export function withVerdicts(log: LogResult, options: { plots: boolean }): LogResult {
+  return {
+    ...log,
+    records: log.records.map((record) => ({
+      ...record,
+      blocks: record.blocks.map((block) => ({ ...block, plots: options.plots ? block.plots : null, verdict: blockVerdict(block) })),
+    })),
+  };
+}
