@@ -3,6 +3,7 @@ import { evaluateBasisProblem } from '../engine/evaluate-basis.ts';
 import { evaluateProblem, type EngineResult } from '../engine/evaluate-problem.ts';
 import type { ProblemBase } from '../engine/problem.ts';
 import { compileBlock } from '../expr/compile-block.ts';
+import { texOptions } from '../expr/symbol-tex.ts';
 import type { BlockEntry, BlockSpec, SpecProblem } from '../spec/types.ts';
 import { inputHash } from './input-hash.ts';
 import { invalidBlock, unparsedBlock } from './invalid-block.ts';
@@ -52,17 +53,21 @@ export function evaluateBlock(file: string, entry: BlockEntry): BlockResult {
     return invalidBlock(spec.id, spec.line, spec.caption, problems, hash, started);
   }
   const trees = compiled.block.trees;
+  // Units bound as constants in quantity mode stay upright; everything the author declared is a symbol.
+  const bound = new Set(spec.quantity?.bound ?? []);
+  const declared = new Set([trees.coordinate, ...spec.varied.map((p) => p.name), ...Object.keys(spec.fixed), ...Object.keys(spec.constants).filter((name) => !bound.has(name))]);
+  const tex = texOptions(declared);
   const inputs: BlockInputs = {
     space: spec.space,
     box: spec.box,
     angularMomentum: spec.angularMomentum,
     mass: trees.mass ? null : compiled.block.mass,
-    massTex: trees.mass?.toTex() ?? null,
+    massTex: trees.mass?.toTex(tex) ?? null,
     coordinate: trees.coordinate,
     lengthUnit: 'bohr',
-    potentialTex: trees.potential.toTex(),
-    trialTex: trees.trial?.toTex() ?? null,
-    basisTex: trees.basis?.map((tree) => tree.toTex()) ?? null,
+    potentialTex: trees.potential.toTex(tex),
+    trialTex: trees.trial?.toTex(tex) ?? null,
+    basisTex: trees.basis?.map((tree) => tree.toTex(tex)) ?? null,
     constants: spec.constants,
     ranges: spec.varied.map(({ name, start, min, max }) => ({ name, start, min, max })),
   };
