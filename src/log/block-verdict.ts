@@ -48,7 +48,8 @@ export function blockVerdict(result: BlockResult): Verdict {
 function reasonOf(result: BlockResult, gap: Verdict['gap'], claim: Verdict['claim']): string {
   if (result.status !== 'confirmed') return result.message ?? result.problems.map((p) => p.message).join('; ') ?? result.status;
   const against = gap ? `at or above the ${gap.method === 'grid' ? 'grid' : 'published'} reference` : 'no reference to compare with';
-  return `${against}; ${claim ? 'the claim agrees' : 'no claim made'}; every check passes`;
+  const parametersOnly = !claim && result.claim && Object.keys(result.claim.parameters).length > 0;
+  return `${against}; ${claim ? 'the claim agrees' : parametersOnly ? 'the claimed parameters agree' : 'no claim made'}; every check passes`;
 }
 
 /** The log with each block's verdict beside it, as `check --json` and the record JSON give it; plot samples only when asked. */

@@ -72,7 +72,8 @@ export function formatAt(value: number | null | undefined, resolution: number): 
 export function formatNearOne(value: number | null | undefined, digits = 3): string {
   if (value === null || value === undefined || !Number.isFinite(value)) return formatNumber(value);
   const d = 1 - value;
-  if (d === 0) return '1';
+  // Within a few rounding errors of 1 is 1: the digits beyond are noise of the arithmetic.
+  if (Math.abs(d) < 1e-12) return '1';
   if (Math.abs(d) >= 1e-3) return formatNumber(value, Math.max(digits, 6));
   return `1 ${d > 0 ? MINUS : '+'} ${formatNumber(Math.abs(d), digits)}`;
 }
@@ -87,5 +88,6 @@ export function typesetMessage(text: string): string {
     .replace(/\+\/-/g, '±')
     .replace(/>=/g, '≥')
     .replace(/<=/g, '≤')
+    .replace(/ - /g, ` ${MINUS} `)
     .replace(/(^|[\s(=[,;:])-(?=[\d.∞]|10)/g, `$1${MINUS}`);
 }
