@@ -11,8 +11,8 @@ export interface Verdict {
   reason: string;
   /** The resolution E is worth writing to: the finest of the gap, the claim's tolerance, the quadrature error. */
   resolution: number | null;
-  /** E - E_ref against the reference the status was decided on (the grid level, else the published value). */
-  gap: { reference: number; method: 'grid' | 'published'; absolute: number; relative: number | null } | null;
+  /** E - E_ref against the reference the status was decided on (the grid level, else the published value); `resolved` is false when the gap is below what the numerics resolve (zero within that). */
+  gap: { reference: number; method: 'grid' | 'published'; absolute: number; relative: number | null; resolved: boolean } | null;
   /** [best lower bound, E]: the lower end is the highest valid lower bound, named. */
   bracket: { lower: number; upper: number; width: number; lowerFrom: 'Temple' | 'Weinstein' } | null;
   /** The claimed energy against the recomputation; null when the block claims no energy. */
@@ -26,7 +26,7 @@ export function blockVerdict(result: BlockResult): Verdict {
   const ref = result.reference;
   const gap =
     E !== null && ref?.energy !== null && ref?.energy !== undefined && ref.method !== null
-      ? { reference: ref.energy, method: ref.method, absolute: E - ref.energy, relative: ref.energy === 0 ? null : (E - ref.energy) / Math.abs(ref.energy) }
+      ? { reference: ref.energy, method: ref.method, absolute: E - ref.energy, relative: ref.energy === 0 ? null : (E - ref.energy) / Math.abs(ref.energy), resolved: true }
       : null;
   const lowers: Array<[number, 'Temple' | 'Weinstein']> = [];
   if (result.bounds.lower !== null) lowers.push([result.bounds.lower, 'Temple']);
@@ -39,9 +39,12 @@ export function blockVerdict(result: BlockResult): Verdict {
     E !== null && claimed !== null && result.claim?.tolerance !== null && result.claim?.tolerance !== undefined
       ? { energy: claimed, tolerance: result.claim.tolerance, difference: E - claimed, agrees: Math.abs(E - claimed) <= result.claim.tolerance }
       : null;
-  const candidates = [gap && Math.abs(gap.absolute) / 10, claim && claim.tolerance / 10, result.diagnostics?.energyError ?? null].filter((v): v is number => v !== null && v > 0 && Number.isFinite(v));
-  const floor = result.diagnostics?.energyError && result.diagnostics.energyError > 0 ? result.diagnostics.energyError : 0;
-  const resolution = candidates.length > 0 ? Math.max(Math.min(...candidates), floor, E !== null ? Math.abs(E) * 1e-12 : 0) : null;
+  // E is written finer than what it is compared with (a tenth of the gap or of the claim's tolerance), never finer
+  // than the numerics resolve: the quadrature error, and ten significant digits.
+  const floor = Math.max(result.diagnostics?.energyError ?? 0, E !== null ? Math.abs(E) * 1e-10 : 0);
+  const compared = [gap && Math.abs(gap.absolute) / 10, claim && claim.tolerance / 10].filter((v): v is number => v !== null && v > 0 && Number.isFinite(v));
+  const resolution = compared.length > 0 ? Math.max(Math.min(...compared), floor) : floor > 0 ? floor : null;
+  if (gap) gap.resolved = Math.abs(gap.absolute) > floor;
   return { status: result.status, reason: reasonOf(result, gap, claim), resolution, gap, bracket, claim, checks: { passed, total: result.checks.length } };
 }
 

@@ -80,7 +80,7 @@ function renderVerdict(result: BlockResult, verdict: Verdict): string {
     const relative = verdict.gap.relative === null ? '' : ` (${signed(formatNumber(100 * verdict.gap.relative, 2))}\u00a0%)`;
     // A gap below what the numerics can resolve is zero within that resolution, not a figure to read.
     const noise = Math.max(result.diagnostics?.energyError ?? 0, 1e-10 * Math.abs(result.energy?.value ?? 0));
-    const gap = Math.abs(verdict.gap.absolute) <= noise ? `0 within ${formatNumber(noise, 1)}${unit ? `\u00a0${escapeHtml(unit)}` : ''}` : `${signed(energyText(verdict.gap.absolute, { ...verdict, resolution: Math.abs(verdict.gap.absolute) / 100 }, unit))}${relative}`;
+    const gap = !verdict.gap.resolved ? `0 within ${formatNumber(noise, 1)}${unit ? `\u00a0${escapeHtml(unit)}` : ''}` : `${signed(energyText(verdict.gap.absolute, { ...verdict, resolution: Math.abs(verdict.gap.absolute) / 100 }, unit))}${relative}`;
     items.push(`<li><span class="gw-v-label">E ${MINUS} E<sub>ref</sub></span> <span class="gw-num">${gap}</span> <span class="gw-quiet">against the ${verdict.gap.method === 'grid' ? 'grid' : 'published value'}</span></li>`);
   } else if (result.energy) items.push(`<li class="gw-quiet">no reference to compare with</li>`);
   if (verdict.bracket) {
@@ -149,8 +149,8 @@ function renderResults(result: BlockResult, verdict: Verdict): string {
   const next = ref?.excited ?? null;
   const rows = [
     ...Object.entries(result.parameters).map(([name, p]) => row(`${tex(symbolTex(name))} ${p.varied ? 'at the optimum' : '(fixed)'}`, `${formatNumber(p.value, 8)}${p.unit ? `\u00a0${escapeHtml(p.unit)}` : ''}`)),
-    row(tex('\\langle T\\rangle'), at(result.components?.kinetic)),
-    row(tex('\\langle V\\rangle'), at(result.components?.potential)),
+    row(`kinetic energy ${tex('\\langle T\\rangle')}`, at(result.components?.kinetic)),
+    row(`potential energy ${tex('\\langle V\\rangle')}`, at(result.components?.potential)),
     row(`${tex('E = \\langle H\\rangle')} (upper bound)`, `<strong>${at(E)}</strong>`),
   ];
   if (result.variance === null) rows.push(not('variance', `not available: ${result.varianceNote ?? 'not computed for this block'}`));
@@ -193,7 +193,7 @@ function renderResults(result: BlockResult, verdict: Verdict): string {
 function renderChecks(result: BlockResult): string {
   const items = result.checks.map((c) => `<li class="${c.pass ? 'gw-pass' : 'gw-fail'}"><span class="gw-mark">${c.pass ? '✓ pass' : '✗ FAIL'}</span> <code>${escapeHtml(c.name)}</code> ${escapeHtml(typesetMessage(c.detail))}</li>`);
   const passed = result.checks.filter((c) => c.pass).length;
-  return `<section class="gw-checks-box" aria-label="checks"><h3 class="gw-sub">Checks: ${passed} of ${result.checks.length} pass</h3><ul class="gw-checks">${items.join('')}</ul></section>`;
+  return `<div class="gw-checks-box"><h3 class="gw-sub">Checks: ${passed} of ${result.checks.length} pass</h3><ul class="gw-checks">${items.join('')}</ul></div>`;
 }
 
 function renderAudit(result: BlockResult, context: PanelContext): string {

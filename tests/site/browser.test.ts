@@ -68,18 +68,18 @@ describe.runIf(run)('the demo log in a real browser', () => {
 
     // Filtering by status keeps exactly the records with such a block; ordering puts the oldest date first.
     await page.selectOption('select[name="status"]', 'disputed');
-    const disputedRows = page.locator('table.gw-index tbody tr:not([hidden])');
-    expect(await disputedRows.count()).toBe(await page.locator('table.gw-index tbody tr[data-statuses~="disputed"]').count());
+    const disputedRows = page.locator('table.gw-index > tbody > tr:not([hidden])');
+    expect(await disputedRows.count()).toBe(await page.locator('table.gw-index > tbody > tr[data-statuses~="disputed"]').count());
     // The filter is in the URL, and the blocks of other statuses inside a shown record are dimmed.
     expect(new URL(page.url()).searchParams.get('status')).toBe('disputed');
     expect(await page.locator('tr.gw-block-row.gw-dim[data-status="confirmed"]').count()).toBeGreaterThan(0);
     expect(await page.locator('tr.gw-block-row.gw-dim[data-status="disputed"]').count()).toBe(0);
     await page.selectOption('select[name="status"]', '');
     await page.selectOption('select[name="tag"]', 'radial');
-    expect(await page.locator('table.gw-index tbody tr:not([hidden])').count()).toBe(await page.locator('table.gw-index tbody tr[data-tags~="radial"]').count());
+    expect(await page.locator('table.gw-index > tbody > tr:not([hidden])').count()).toBe(await page.locator('table.gw-index > tbody > tr[data-tags~="radial"]').count());
     await page.selectOption('select[name="tag"]', '');
     await page.selectOption('select[name="order"]', 'oldest');
-    const dates = await page.locator('table.gw-index tbody tr').evaluateAll((rows) => rows.map((r) => (r as HTMLElement).dataset.date!));
+    const dates = await page.locator('table.gw-index > tbody > tr').evaluateAll((rows) => rows.map((r) => (r as HTMLElement).dataset.date!));
     expect(dates).toEqual([...dates].sort());
 
     await page.getByRole('link', { name: /Donor D-7/ }).click();
