@@ -131,7 +131,7 @@ function toBlockResult(file: string, spec: BlockSpec, inputs: BlockInputs, engin
     claim: spec.claim
       ? { energy: spec.claim.energy?.value ?? null, tolerance: spec.claim.energy?.tolerance ?? null, parameters: spec.claim.parameters }
       : null,
-    checks: engine.checks.map(({ name, pass, detail }) => ({ name, pass, detail })),
+    checks: engine.checks.map(({ name, pass, detail, measure }) => (measure ? { name, pass, detail, measure } : { name, pass, detail })),
     plots: engine.plots,
     diagnostics: {
       energyError: engine.energyError,

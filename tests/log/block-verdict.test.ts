@@ -36,6 +36,12 @@ describe('blockVerdict', () => {
     expect(v.claim!.difference).toBeCloseTo(-0.1, 6);
     expect(v.checks.passed).toBe(v.checks.total - 1);
     expect(v.reason).toContain('claimed 0.6');
+    // Each compared check carries its number and limit beside its words.
+    const claimCheck = wrong.checks.find((c) => c.name === 'claim-energy')!;
+    expect(claimCheck.measure).toEqual({ value: expect.closeTo(0.1, 6), limit: 0.01, relation: '<=', quantity: 'energy' });
+    const above = wrong.checks.find((c) => c.name === 'above-grid-reference')!;
+    expect(above.measure!.relation).toBe('>=');
+    expect(above.measure!.value).toBeCloseTo(0, 6);
   });
 
   it('adds the verdict to JSON output and leaves the plot samples out unless asked for', () => {
