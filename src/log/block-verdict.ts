@@ -41,11 +41,16 @@ export function blockVerdict(result: BlockResult): Verdict {
       : null;
   // E is written finer than what it is compared with (a tenth of the gap or of the claim's tolerance), never finer
   // than the numerics resolve: the quadrature error, and ten significant digits.
-  const floor = Math.max(result.diagnostics?.energyError ?? 0, E !== null ? Math.abs(E) * 1e-10 : 0);
-  const compared = [gap && Math.abs(gap.absolute) / 10, claim && claim.tolerance / 10].filter((v): v is number => v !== null && v > 0 && Number.isFinite(v));
-  const resolution = compared.length > 0 ? Math.max(Math.min(...compared), floor) : floor > 0 ? floor : null;
+  const floor = numericFloor(result);
   if (gap) gap.resolved = Math.abs(gap.absolute) > floor;
+  const compared = [gap?.resolved ? Math.abs(gap.absolute) / 10 : null, claim && claim.tolerance / 10].filter((v): v is number => v !== null && v > 0 && Number.isFinite(v));
+  const resolution = compared.length > 0 ? Math.max(Math.min(...compared), floor) : floor > 0 ? floor : null;
   return { status: result.status, reason: reasonOf(result, gap, claim), resolution, gap, bracket, claim, checks: { passed, total: result.checks.length } };
+}
+
+/** The smallest energy difference the numbers resolve: the quadrature error of E, and ten significant digits of E. */
+export function numericFloor(result: BlockResult): number {
+  return Math.max(result.diagnostics?.energyError ?? 0, Math.abs(result.energy?.value ?? 0) * 1e-10);
 }
 
 function reasonOf(result: BlockResult, gap: Verdict['gap'], claim: Verdict['claim']): string {

@@ -4,7 +4,7 @@ import type { Provenance } from '../log/provenance.ts';
 import { eckartOverlapFloor } from '../engine/bounds.ts';
 import { describeLevel } from '../engine/parity.ts';
 import { symbolTex } from '../expr/symbol-tex.ts';
-import { blockVerdict, type Verdict } from '../log/block-verdict.ts';
+import { blockVerdict, numericFloor, type Verdict } from '../log/block-verdict.ts';
 import type { BlockInputs, BlockResult } from '../log/result-types.ts';
 import { escapeHtml, formatAt, formatNearOne, formatNumber, MINUS, texNumber, typesetMessage } from './html.ts';
 import { renderPlots } from './plots.ts';
@@ -79,8 +79,7 @@ function renderVerdict(result: BlockResult, verdict: Verdict): string {
   if (verdict.gap) {
     const relative = verdict.gap.relative === null ? '' : ` (${signed(formatNumber(100 * verdict.gap.relative, 2))}\u00a0%)`;
     // A gap below what the numerics can resolve is zero within that resolution, not a figure to read.
-    const noise = Math.max(result.diagnostics?.energyError ?? 0, 1e-10 * Math.abs(result.energy?.value ?? 0));
-    const gap = !verdict.gap.resolved ? `0 within ${formatNumber(noise, 1)}${unit ? `\u00a0${escapeHtml(unit)}` : ''}` : `${signed(energyText(verdict.gap.absolute, { ...verdict, resolution: Math.abs(verdict.gap.absolute) / 100 }, unit))}${relative}`;
+    const gap = !verdict.gap.resolved ? `0 within ${formatNumber(numericFloor(result), 1)}${unit ? `\u00a0${escapeHtml(unit)}` : ''}` : `${signed(energyText(verdict.gap.absolute, { ...verdict, resolution: Math.abs(verdict.gap.absolute) / 100 }, unit))}${relative}`;
     items.push(`<li><span class="gw-v-label">E ${MINUS} E<sub>ref</sub></span> <span class="gw-num">${gap}</span> <span class="gw-quiet">against the ${verdict.gap.method === 'grid' ? 'grid' : 'published value'}</span></li>`);
   } else if (result.energy) items.push(`<li class="gw-quiet">no reference to compare with</li>`);
   if (verdict.bracket) {
@@ -105,7 +104,7 @@ function renderInputs(result: BlockResult): string {
   const where = inputs.box ? `${q} \\in [${texNumber(inputs.box[0], 10)}, ${texNumber(inputs.box[1], 10)}]${lengthUnit}` : inputs.space === 'line' ? `${q} \\in \\mathbb{R}` : `${q} \\ge 0`;
   const massTex = inputs.massTex === null ? `m = ${result.quantity ? `${inputs.mass}\\,m_e` : `${inputs.mass}`}` : `m(${q}) = ${inputs.massTex}`;
   const rows = [
-    `<div>${tex(`H = ${kinetic} + ${inputs.potentialTex}, \\quad ${where}, \\quad ${massTex}`, true)}</div>`,
+    `<div>${tex(`H = ${kinetic} ${/^\s*-/.test(inputs.potentialTex) ? '' : '+'} ${inputs.potentialTex}, \\quad ${where}, \\quad ${massTex}`, true)}</div>`,
     inputs.trialTex !== null
       ? `<div>${tex(`${inputs.space === 'radial' ? 'R' : '\\psi'}(${q}) = ${inputs.trialTex}`, true)}</div>`
       : `<div>Basis (linear variational method, ${result.states.length} level${result.states.length === 1 ? '' : 's'} reported):${tex(`${inputs.space === 'radial' ? 'R' : '\\psi'}(${q}) = \\sum_i c_i \\phi_i(${q})`, true)}<ul class="gw-basis">${(inputs.basisTex ?? []).map((b, i) => `<li>${tex(`\\phi_{${i}} = ${b}`)}</li>`).join('')}</ul></div>`,
@@ -146,7 +145,8 @@ function renderResults(result: BlockResult, verdict: Verdict): string {
   /** A row that does not apply to this block says why, in a quieter style. */
   const not = (label: string, why: string) => `<tr class="gw-quiet"><th scope="row">${label}</th><td>${escapeHtml(why)}</td></tr>`;
   const ref = result.reference;
-  const next = ref?.excited ?? null;
+  // The next level above E0 or, when there is none bound, the continuum threshold: a lower bound to it either way.
+  const next = ref?.excited ?? ref?.threshold ?? null;
   const rows = [
     ...Object.entries(result.parameters).map(([name, p]) => row(`${tex(symbolTex(name))} ${p.varied ? 'at the optimum' : '(fixed)'}`, `${formatNumber(p.value, 8)}${p.unit ? `\u00a0${escapeHtml(p.unit)}` : ''}`)),
     row(`kinetic energy ${tex('\\langle T\\rangle')}`, at(result.components?.kinetic)),

@@ -1,6 +1,7 @@
 import * as Plot from '@observablehq/plot';
 import { parseHTML } from 'linkedom';
 import type { DensityProfile, EnergyScan } from '../engine/plot-data.ts';
+import { numericFloor } from '../log/block-verdict.ts';
 import type { BlockResult } from '../log/result-types.ts';
 import { describeLevel } from '../engine/parity.ts';
 import { formatNumber, MINUS } from './html.ts';
@@ -64,7 +65,10 @@ function scanPlot(scan: EnergyScan, result: BlockResult, units: PlotUnits, yDoma
     const tol = result.claim.tolerance;
     marks.push(
       Plot.rect([{}], { x1: x0, x2: x1, y1: claim - tol, y2: claim + tol, fill: INK, fillOpacity: 0.12 }),
-      Plot.text([{}], { x: x0, y: claim + tol, text: () => `claim ${formatNumber(claim)} ± ${formatNumber(tol, 2)}`, textAnchor: 'start', dy: -7, dx: 3, fill: INK }),
+      // A tolerance thinner than a few pixels still shows as a broad pale line at the claimed value.
+      Plot.ruleY([claim], { stroke: INK, strokeOpacity: 0.3, strokeWidth: 5 }),
+      // Labelled at the right end, away from the optimum's label above the minimum.
+      Plot.text([{}], { x: x1, y: claim + tol, text: () => `claim ${formatNumber(claim)} ± ${formatNumber(tol, 2)}`, textAnchor: 'end', dy: -9, fill: INK }),
     );
   }
   if (range) {
@@ -80,14 +84,16 @@ function scanPlot(scan: EnergyScan, result: BlockResult, units: PlotUnits, yDoma
   if (reference !== null) {
     marks.push(
       Plot.ruleY([reference], { stroke: INK, strokeDasharray: '6,4' }),
-      Plot.text([reference], { y: (d: number) => d, frameAnchor: 'right', text: () => `E_ref`, dy: -8, dx: -2, fill: INK, textAnchor: 'end' }),
+      Plot.text([reference], { y: (d: number) => d, frameAnchor: 'right', text: () => 'reference', dy: 9, dx: -2, fill: INK, textAnchor: 'end' }),
     );
   }
   // The gap E − E_ref stated on the plot: at this scale a small gap would otherwise be invisible.
   const gap = reference === null ? null : optimum - reference;
-  if (gap !== null) marks.push(Plot.text([`E ${MINUS} E_ref = ${gap >= 0 ? '+' : ''}${formatNumber(gap, 3)} ${units.energy}`], { frameAnchor: 'top-right', text: (d: string) => d, dy: 4, dx: -2, fill: INK, textAnchor: 'end' }));
+  const resolved = gap !== null && Math.abs(gap) > numericFloor(result);
+  const gapText = gap === null ? '' : resolved ? `${gap >= 0 ? '+' : ''}${formatNumber(gap, 3)} ${units.energy}` : `0 within ${formatNumber(numericFloor(result), 1)} ${units.energy}`;
+  if (gap !== null) marks.push(Plot.text([`E ${MINUS} reference = ${gapText}`], { frameAnchor: 'top-right', text: (d: string) => d, dy: 4, dx: -2, fill: INK, textAnchor: 'end' }));
   const onLimit = limits.some((v) => Math.abs(v - scan.optimum) <= 1e-6 * Math.max(1, Math.abs(v)));
-  const finding = `${scan.parameter} = ${formatNumber(scan.optimum, 4)} minimises E at ${formatNumber(optimum, 6)} ${units.energy}${onLimit ? ', pressed on a parameter limit' : ''}${gap !== null ? `, ${formatNumber(gap, 3)} ${units.energy} above the reference` : ''}${claim !== null ? `; the claim band ${result.claim!.tolerance !== null && Math.abs(optimum - claim) <= result.claim!.tolerance ? 'holds' : 'misses'} the optimum` : ''}.`;
+  const finding = `${scan.parameter} = ${formatNumber(scan.optimum, 4)} minimises E at ${formatNumber(optimum, 6)} ${units.energy}${onLimit ? ', pressed on a parameter limit' : ''}${gap === null ? '' : resolved ? `, ${formatNumber(gap, 3)} ${units.energy} ${gap >= 0 ? 'above' : 'below'} the reference` : ', on the reference to within the numerics'}${claim !== null ? `; the claim band ${result.claim!.tolerance !== null && Math.abs(optimum - claim) <= result.claim!.tolerance ? 'holds' : 'misses'} the optimum` : ''}.`;
   return draw(
     {
       // In quantity mode a parameter without a unit is a pure number; in atomic mode it is in atomic units.

@@ -90,9 +90,9 @@ describe.runIf(run)('the demo log in a real browser', () => {
     expect(await page.locator('.katex').count()).toBeGreaterThan(10);
     // The exact 1s level -1/2 hartree (any quantum mechanics textbook) is printed in the results table.
     expect(await page.locator('#block-d7-slater .gw-results').innerText()).toContain('\u22120.5');
-    // The verdict line stands under the heading and says there is no claim and how many checks pass.
+    // The verdict line stands under the heading and says whether the claim (-1/2 to 1e-9) agrees and how many checks pass.
     const verdict = await page.locator('#block-d7-slater .gw-verdict').innerText();
-    expect(verdict).toContain('no claim made');
+    expect(verdict).toMatch(/claim\s+\u22120\.5 ± 10⁻⁹ agrees/);
     expect(verdict).toMatch(/(\d+)\/\1 checks pass/);
     expect(await page.locator('#block-d7-slater h2 a.gw-self').getAttribute('href')).toBe('#block-d7-slater');
     // Each panel has its scan (one varied parameter) and density plots as inline SVG with labelled axes.
