@@ -90,7 +90,8 @@ function renderVerdict(result: BlockResult, verdict: Verdict): string {
     const c = verdict.claim;
     items.push(`<li><span class="gw-v-label">claim</span> <span class="gw-num">${formatNumber(c.energy)} ± ${formatNumber(c.tolerance, 3)}</span> ${c.agrees ? 'agrees' : '<strong>disagrees</strong>'}, off by <span class="gw-num">${formatNumber(Math.abs(c.difference), 3)}${unit ? `\u00a0${escapeHtml(unit)}` : ''}</span></li>`);
   } else if (result.claim && Object.keys(result.claim.parameters).length > 0) items.push(`<li>claim on parameters only (see the checks)</li>`);
-  else if (result.energy) items.push(`<li class="gw-quiet">no claim made</li>`);
+  // A confirmed block's reason already says it made no claim.
+  else if (result.energy && result.status !== 'confirmed') items.push(`<li class="gw-quiet">no claim made</li>`);
   if (verdict.checks.total > 0) items.push(`<li><span class="gw-num">${verdict.checks.passed}/${verdict.checks.total}</span> checks pass</li>`);
   return `<ul class="gw-verdict" aria-label="verdict">${items.join('')}</ul>`;
 }
@@ -177,7 +178,7 @@ function renderResults(result: BlockResult, verdict: Verdict): string {
       rows.push(row(`level ${tex(`E_{${k}}`)} (upper bound)`, `${formatNumber(state.energy)}${u}${error}`));
     });
   }
-  if (result.basis) rows.push(row('overlap matrix', `${result.basis.functions} functions, ${result.basis.kept} kept; ${escapeHtml(result.basis.conditioning)}`));
+  if (result.basis) rows.push(row('overlap matrix', `${result.basis.functions} functions, ${result.basis.kept} kept; ${escapeHtml(typesetMessage(result.basis.conditioning))}`));
   if (result.errors.vsGrid !== null) rows.push(row(`relative error against the grid${level ? ` (${level})` : ''}`, formatNumber(result.errors.vsGrid, 3)));
   if (result.errors.vsPublished !== null) rows.push(row('relative error against the published value', formatNumber(result.errors.vsPublished, 3)));
   if (result.overlap !== null) rows.push(row(`overlap with the grid ${level ? `state of the ${level}` : 'ground state'} ${tex('|\\langle\\psi|\\psi_0\\rangle|^2')}`, formatNearOne(result.overlap)));

@@ -59,7 +59,7 @@ export function formatAt(value: number | null | undefined, resolution: number): 
   if (!Number.isFinite(value) || !(resolution > 0) || !Number.isFinite(resolution)) return formatNumber(value);
   const decimals = Math.ceil(-Math.log10(resolution) - 1e-9);
   if (Math.abs(value) < resolution / 2) return '0';
-  if (decimals < 0 || Math.abs(value) >= 1e6 || decimals > 12) {
+  if (decimals < 0 || Math.abs(value) >= 1e6 || Math.abs(value) < 1e-4 || decimals > 12) {
     // Too coarse or too fine for fixed decimals: significant digits down to the resolution instead.
     const significant = Math.max(1, Math.min(15, Math.floor(Math.log10(Math.abs(value))) - Math.floor(Math.log10(resolution)) + 1));
     return formatNumber(value, significant);

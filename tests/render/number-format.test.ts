@@ -23,6 +23,7 @@ describe('the number formatter', () => {
     expect(formatAt(Math.PI ** 2 / 2, 1e-4)).toBe('4.9348');
     expect(formatAt(-0.49999, 1e-3)).toBe('\u22120.500');
     expect(formatAt(3e-9, 1e-6)).toBe('0');
+    expect(formatAt(2.634e-9, 1e-11)).toBe('2.63×10⁻⁹');
   });
 
   it('writes values just below 1 as 1 − d, and rounding noise about 1 as 1', () => {
