@@ -186,7 +186,7 @@ function renderResults(result: BlockResult, verdict: Verdict): string {
   const floor = ref?.energy !== null && ref?.energy !== undefined && (!level) ? eckartOverlapFloor(E, ref.energy, next) : null;
   if (floor !== null) rows.push(row("Eckart's overlap floor", floor <= 0 ? `${formatNumber(floor, 3)} <span class="gw-quiet">(not informative: E is too far above E0)</span>` : formatNearOne(floor)));
   else rows.push(not("Eckart's overlap floor", level ? `not applicable: only for the ground level` : 'not applicable: no next level known'));
-  if (result.virial) rows.push(row(`virial ratio ${tex(`2\\langle T\\rangle / (${result.virial.exponent}\\langle V\\rangle)`)}`, formatNearOne(result.virial.ratio)));
+  if (result.virial) rows.push(row(`virial ratio ${tex(`2\\langle T\\rangle / (${result.virial.exponent === 1 ? '' : result.virial.exponent === -1 ? '-' : result.virial.exponent}\\langle V\\rangle)`)}`, formatNearOne(result.virial.ratio)));
   else rows.push(not('virial ratio', `not applicable: ${result.virialNote ?? 'the potential is not a power law'}`));
   return `<table class="gw-results"><caption>Recomputed values (${escapeHtml(unit)}); model estimates, not a substitute for the group's validated procedures</caption><tbody>${rows.join('')}</tbody></table>`;
 }

@@ -67,8 +67,8 @@ function scanPlot(scan: EnergyScan, result: BlockResult, units: PlotUnits, yDoma
       Plot.rect([{}], { x1: x0, x2: x1, y1: claim - tol, y2: claim + tol, fill: INK, fillOpacity: 0.12 }),
       // A tolerance thinner than a few pixels still shows as a broad pale line at the claimed value.
       Plot.ruleY([claim], { stroke: INK, strokeOpacity: 0.3, strokeWidth: 5 }),
-      // Labelled at the right end, away from the optimum's label above the minimum.
-      Plot.text([{}], { x: x1, y: claim + tol, text: () => `claim ${formatNumber(claim)} ± ${formatNumber(tol, 2)}`, textAnchor: 'end', dy: -9, fill: INK }),
+      // Labelled under the band at its left end, away from the optimum's label above the minimum.
+      Plot.text([{}], { x: x0, y: claim - tol, text: () => `claim ${formatNumber(claim)} ± ${formatNumber(tol, 2)}`, textAnchor: 'start', dy: 12, dx: 3, fill: INK }),
     );
   }
   if (range) {
