@@ -6,7 +6,7 @@ import { describeLevel } from '../engine/parity.ts';
 import { symbolTex } from '../expr/symbol-tex.ts';
 import { blockVerdict, numericFloor, type Verdict } from '../log/block-verdict.ts';
 import type { BlockInputs, BlockResult } from '../log/result-types.ts';
-import { escapeHtml, formatAt, formatNearOne, formatNumber, MINUS, texNumber, typesetMessage } from './html.ts';
+import { escapeHtml, formatAt, formatNearOne, formatNumber, MINUS, texNumber, typesetMessage, typesetUnit } from './html.ts';
 import { renderPlots } from './plots.ts';
 
 const tex = (source: string, display = false) => katex.renderToString(source, { displayMode: display, throwOnError: false, output: 'htmlAndMathml' });
@@ -112,9 +112,9 @@ function renderInputs(result: BlockResult): string {
   ];
   // Units stay outside the math: they are written as mathjs spells them (nm^-1), not as TeX.
   // From the block's units rather than the results, so an invalid block's ranges keep theirs too.
-  const unitOf = (name: string) => (result.quantity?.parameters[name]?.unit ? ` ${escapeHtml(result.quantity.parameters[name].unit!)}` : '');
+  const unitOf = (name: string) => (result.quantity?.parameters[name]?.unit ? `\u00a0${escapeHtml(typesetUnit(result.quantity.parameters[name].unit!))}` : '');
   const ranges = inputs.ranges.map((r) => `${tex(`${symbolTex(r.name)} \\in [${texNumber(r.min, 8)}, ${texNumber(r.max, 8)}]`)}${unitOf(r.name)}, start ${formatNumber(r.start, 8)}${unitOf(r.name)}`).join('; ');
-  const constantUnit = (name: string) => (inputs.constantUnits?.[name] ? ` ${escapeHtml(inputs.constantUnits[name]!)}` : '');
+  const constantUnit = (name: string) => (inputs.constantUnits?.[name] ? `\u00a0${escapeHtml(typesetUnit(inputs.constantUnits[name]!))}` : '');
   const constants = Object.entries(inputs.constants).map(([k, v]) => `${tex(`${symbolTex(k)} = ${texNumber(v, 10)}`)}${constantUnit(k)}`).join(', ');
   if (ranges) rows.push(`<p>Varied: ${ranges}</p>`);
   if (constants) rows.push(`<p>Constants: ${constants}</p>`);
@@ -149,7 +149,7 @@ function renderResults(result: BlockResult, verdict: Verdict): string {
   // The next level above E0 or, when there is none bound, the continuum threshold: a lower bound to it either way.
   const next = ref?.excited ?? ref?.threshold ?? null;
   const rows = [
-    ...Object.entries(result.parameters).map(([name, p]) => row(`${tex(symbolTex(name))} ${p.varied ? 'at the optimum' : '(fixed)'}`, `${formatNumber(p.value, 8)}${p.unit ? `\u00a0${escapeHtml(p.unit)}` : ''}`)),
+    ...Object.entries(result.parameters).map(([name, p]) => row(`${tex(symbolTex(name))} ${p.varied ? 'at the optimum' : '(fixed)'}`, `${formatNumber(p.value, 8)}${p.unit ? `\u00a0${escapeHtml(typesetUnit(p.unit))}` : ''}`)),
     row(`kinetic energy ${tex('\\langle T\\rangle')}`, at(result.components?.kinetic)),
     row(`potential energy ${tex('\\langle V\\rangle')}`, at(result.components?.potential)),
     row(`${tex('E = \\langle H\\rangle')} (upper bound)`, `<strong>${at(E)}</strong>`),

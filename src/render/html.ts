@@ -91,3 +91,8 @@ export function typesetMessage(text: string): string {
     .replace(/ - /g, ` ${MINUS} `)
     .replace(/(^|[\s(=[,;:])-(?=[\d.∞]|10)/g, `$1${MINUS}`);
 }
+
+/** A unit as mathjs writes it (nm^-1, J s) set with superscript powers and a centred dot: nm⁻¹, J·s. */
+export function typesetUnit(unit: string): string {
+  return unit.replace(/\^\(?(-?\d+)\)?/g, (_, n: string) => superscript(Number(n))).replace(/ \* /g, '·').replace(/(\w) (?=\w)/g, '$1·');
+}

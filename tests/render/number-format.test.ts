@@ -1,6 +1,6 @@
 import katex from 'katex';
 import { describe, expect, it } from 'vitest';
-import { formatAt, formatNearOne, formatNumber, texNumber, typesetMessage } from '../../src/render/html.ts';
+import { formatAt, formatNearOne, formatNumber, texNumber, typesetMessage, typesetUnit } from '../../src/render/html.ts';
 
 // Writing numbers: the minus sign U+2212 and a power of ten as "×10ⁿ" are the typesetting rules of
 // ISO 80000-1 (quantities and units, general; from memory) and of the SI brochure, 9th edition, section 5.4.
@@ -30,6 +30,12 @@ describe('the number formatter', () => {
     expect(formatNearOne(0.99999998)).toBe('1 \u2212 2×10⁻⁸');
     expect(formatNearOne(1 + 1e-14)).toBe('1');
     expect(formatNearOne(0.5)).toBe('0.5');
+  });
+
+  it('sets unit powers as superscripts and products with a centred dot (SI brochure, section 5.4.3)', () => {
+    expect(typesetUnit('nm^-1')).toBe('nm⁻¹');
+    expect(typesetUnit('J s')).toBe('J·s');
+    expect(typesetUnit('F / m')).toBe('F / m');
   });
 
   it('sets the ASCII signs of check messages', () => {

@@ -74,6 +74,6 @@ describe('a quantity-mode well states every length and energy in its own units',
     expect(html).not.toMatch(ATOMIC_FIGURES);
     expect(html).toContain('trial at the wall \u22125 nm');
     expect(html).toMatch(/domain \[\u2212 ?5, 5\] nm/);
-    expect(html).toMatch(/Constants: .*<\/span> nm<\/p>/);
+    expect(html).toMatch(/Constants: .*<\/span>\u00a0nm<\/p>/);
   });
 });
