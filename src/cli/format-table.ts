@@ -37,9 +37,10 @@ function row(file: string, b: BlockResult, cached: boolean): string[] {
     basename(file, '.md'),
     b.id,
     b.status,
-    num(b.energy?.value, 8),
+    num(b.energy?.value),
     b.energy?.unit ?? '-',
-    v.gap ? signed(v.gap.absolute, 3) : '-',
+    // A gap below what the numerics resolve is zero, as on the pages.
+    v.gap ? (v.gap.resolved ? signed(v.gap.absolute, 3) : '0') : '-',
     `${v.checks.passed}/${v.checks.total}`,
     cached ? 'cached' : `${Math.round(b.timeMs)} ms`,
   ];
