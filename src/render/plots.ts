@@ -61,6 +61,8 @@ function scanPlot(scan: EnergyScan, result: BlockResult, units: PlotUnits, yDoma
   for (const v of limits) [x0, x1] = [Math.min(x0, v), Math.max(x1, v)];
   const marks: Plot.Markish[] = [];
   const claim = result.claim?.energy ?? null;
+  // The optimum's label goes on the side of the dot away from a claim band above it.
+  const claimAbove = claim !== null && claim > optimum;
   if (claim !== null && result.claim?.tolerance !== null && result.claim?.tolerance !== undefined) {
     const tol = result.claim.tolerance;
     marks.push(
@@ -79,7 +81,7 @@ function scanPlot(scan: EnergyScan, result: BlockResult, units: PlotUnits, yDoma
   marks.push(
     Plot.line(points, { x: 'value', y: 'energy', stroke: INK, strokeWidth: 1.8 }),
     Plot.dot([{ value: scan.optimum, energy: optimum }], { x: 'value', y: 'energy', fill: INK, r: 4, symbol: 'circle' }),
-    Plot.text([{ value: scan.optimum, energy: optimum }], { x: 'value', y: 'energy', text: () => `optimum ${scan.parameter} = ${formatNumber(scan.optimum, 4)}`, dy: -14, fill: INK }),
+    Plot.text([{ value: scan.optimum, energy: optimum }], { x: 'value', y: 'energy', text: () => `optimum ${scan.parameter} = ${formatNumber(scan.optimum, 4)}`, dy: claimAbove ? 18 : -14, fill: INK }),
   );
   if (reference !== null) {
     marks.push(
