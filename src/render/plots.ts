@@ -15,6 +15,8 @@ const HEIGHT = 260;
 // Black and white print: marks differ by line style and symbol, never by colour alone.
 const INK = '#111';
 const QUIET = '#555';
+/** Labels drawn over marks keep a white halo, so a curve running under them never makes them unreadable. */
+const HALO = { fill: INK, stroke: 'white', strokeWidth: 4, paintOrder: 'stroke' } as const;
 // 13 px text stays at least 12 px when a phone narrows the plot to its panel.
 const STYLE = { fontSize: '13px', background: 'white', color: INK, overflow: 'visible' };
 
@@ -44,7 +46,8 @@ function scanRange(result: BlockResult): [number, number] {
   const low = Math.min(...all);
   const high = Math.max(...all);
   const pad = 0.08 * (high - low || Math.abs(high) || 1);
-  return [low - pad, high + pad];
+  // More room below: the labels under the reference and the claim band sit there, clear of the tick labels.
+  return [low - 2 * pad, high + pad];
 }
 
 function scanPlot(scan: EnergyScan, result: BlockResult, units: PlotUnits, yDomain: [number, number]): string {
@@ -69,8 +72,8 @@ function scanPlot(scan: EnergyScan, result: BlockResult, units: PlotUnits, yDoma
       Plot.rect([{}], { x1: x0, x2: x1, y1: claim - tol, y2: claim + tol, fill: INK, fillOpacity: 0.12 }),
       // A tolerance thinner than a few pixels still shows as a broad pale line at the claimed value.
       Plot.ruleY([claim], { stroke: INK, strokeOpacity: 0.3, strokeWidth: 5 }),
-      // Labelled under the band at its left end, away from the optimum's label above the minimum.
-      Plot.text([{}], { x: x0, y: claim - tol, text: () => `claim ${formatNumber(claim)} ± ${formatNumber(tol, 2)}`, textAnchor: 'start', dy: 12, dx: 3, fill: INK }),
+      // Labelled at the band's right end on the side away from the optimum, with a white halo over any curve.
+      Plot.text([{}], { x: x1, y: claimAbove ? claim + tol : claim - tol, text: () => `claim ${formatNumber(claim)} ± ${formatNumber(tol, 2)}`, textAnchor: 'end', dy: claimAbove ? -9 : 12, dx: -2, ...HALO }),
     );
   }
   if (range) {
@@ -81,12 +84,13 @@ function scanPlot(scan: EnergyScan, result: BlockResult, units: PlotUnits, yDoma
   marks.push(
     Plot.line(points, { x: 'value', y: 'energy', stroke: INK, strokeWidth: 1.8 }),
     Plot.dot([{ value: scan.optimum, energy: optimum }], { x: 'value', y: 'energy', fill: INK, r: 4, symbol: 'circle' }),
-    Plot.text([{ value: scan.optimum, energy: optimum }], { x: 'value', y: 'energy', text: () => `optimum ${scan.parameter} = ${formatNumber(scan.optimum, 4)}`, dy: claimAbove ? 18 : -14, fill: INK }),
+    Plot.text([{ value: scan.optimum, energy: optimum }], { x: 'value', y: 'energy', text: () => `optimum ${scan.parameter} = ${formatNumber(scan.optimum, 4)}`, dy: claimAbove ? 18 : -14, ...HALO }),
   );
   if (reference !== null) {
     marks.push(
       Plot.ruleY([reference], { stroke: INK, strokeDasharray: '6,4' }),
-      Plot.text([reference], { y: (d: number) => d, frameAnchor: 'right', text: () => 'reference', dy: 9, dx: -2, fill: INK, textAnchor: 'end' }),
+      // At the left end: the right end is the claim's.
+      Plot.text([reference], { y: (d: number) => d, frameAnchor: 'left', text: () => 'reference', dy: 9, dx: 2, textAnchor: 'start', ...HALO }),
     );
   }
   // The gap E − E_ref stated on the plot: at this scale a small gap would otherwise be invisible.
@@ -134,7 +138,7 @@ function densityPlot(profile: DensityProfile, result: BlockResult, units: PlotUn
     Plot.areaY(profile.samples, { x: 'x', y1: energy, y2: (s: DensityProfile['samples'][number]) => energy + lift * s.trial, fill: '#d9d9d9', clip: true }),
     Plot.line(profile.samples, { x: 'x', y: (s: DensityProfile['samples'][number]) => energy + lift * s.trial, stroke: INK, strokeWidth: 1.4, clip: true }),
     Plot.dot(profile.grid, { x: 'x', y: (g: DensityProfile['grid'][number]) => energy + lift * g.density, stroke: INK, fill: 'white', r: 2.5, symbol: 'circle', clip: true }),
-    Plot.text([energy], { y: (d: number) => d, frameAnchor: 'left', text: () => `E = ${formatNumber(energy, 6)}`, dy: 9, dx: 4, fill: INK, textAnchor: 'start' }),
+    Plot.text([energy], { y: (d: number) => d, frameAnchor: 'left', text: () => `E = ${formatNumber(energy, 6)}`, dy: 9, dx: 4, textAnchor: 'start', ...HALO }),
   ];
   // Hard walls inside the window are drawn as thick rules: the trial must vanish there.
   const walls = (result.inputs?.box ?? []).filter((w) => w >= Math.min(...xs) - 1e-9 && w <= Math.max(...xs) + 1e-9);
