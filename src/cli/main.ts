@@ -5,7 +5,7 @@ import { TOOL_VERSION } from '../log/tool-version.ts';
 // Only the version is loaded up front: `--version` and `--help` must not pay for the record parser, the
 // configuration schema or the cache, which `check` imports when it runs.
 
-const OPTIONS = ['--json', '--recompute'];
+const OPTIONS = ['--json', '--plots', '--recompute', '--help', '-h'];
 
 /** Exit codes: every block confirmed; something checked is not; the check could not run at all. */
 export const EXIT = { confirmed: 0, notConfirmed: 1, couldNotRun: 2 } as const;
@@ -23,10 +23,12 @@ async function usage(): Promise<string> {
   const { CONFIG_FILE, DEFAULTS } = await import('../log/log-config.ts');
   return `groundwork ${TOOL_VERSION}
 
-usage: groundwork check [files or folders...] [--json] [--recompute]
+usage: groundwork check [files or folders...] [--json [--plots]] [--recompute]
 
   check        recompute every variational block of the records (default folder: content/records)
-  --json       print the machine-readable result instead of the table (with an "errors" list)
+  --json       print the machine-readable result instead of the table (with an "errors" list and
+               each block's "verdict"); the plot samples are left out ("plots": null)
+  --plots      with --json, keep each block's plot samples
   --recompute  evaluate every block again instead of taking stored results from the cache
 
 Blocks are evaluated in parallel worker threads and their results kept in ${DEFAULTS.cacheFolder}/.
@@ -64,6 +66,10 @@ export async function main(argv: string[], out: (text: string) => void, err: (te
     return EXIT.couldNotRun;
   };
   if (command !== 'check') return refuse([{ path: null, message: `unknown command ${command}` }], true);
+  if (rest.includes('--help') || rest.includes('-h')) {
+    out(await usage());
+    return EXIT.confirmed;
+  }
   const unknown = rest.filter((a) => a.startsWith('-') && !OPTIONS.includes(a));
   if (unknown.length > 0) return refuse([{ path: null, message: `unknown option ${unknown.join(', ')}` }], true);
 
@@ -87,7 +93,10 @@ export async function main(argv: string[], out: (text: string) => void, err: (te
   const errors: RunError[] = stats.blocks === 0 ? [{ path: paths.join(', '), message: `no variational blocks found in ${count(files.length, 'Markdown file')}, so nothing was checked` }] : [];
   tell(errors);
   if (errors.length === 0) err(summary(stats));
-  out(json ? JSON.stringify({ ...log, errors } satisfies CheckOutput, null, 2) : (await import('./format-table.ts')).formatTable(log));
+  if (json) {
+    const { withVerdicts } = await import('../log/block-verdict.ts');
+    out(JSON.stringify({ ...withVerdicts(log, { plots: rest.includes('--plots') }), errors } satisfies CheckOutput, null, 2));
+  } else out((await import('./format-table.ts')).formatTable(log, stats.fromCache));
   if (errors.length > 0) return EXIT.couldNotRun;
   const allConfirmed = log.records.every((r) => r.problems.length === 0 && r.blocks.every((b) => b.status === 'confirmed'));
   return allConfirmed ? EXIT.confirmed : EXIT.notConfirmed;

@@ -74,6 +74,8 @@ export interface CheckStats {
   writeErrors: number;
   /** The most workers the run may use (the configured number). */
   workers: number;
+  /** The block results of this run that were taken from the cache rather than evaluated (for the table's time column). */
+  fromCache: ReadonlySet<BlockResult>;
 }
 
 /**
@@ -101,12 +103,13 @@ export async function checkLog(files: string[], options: CheckLogOptions = {}): 
       parsed.push({ spec: parseRecord(read.name, read.text), text: read.text });
     }
   }
+  const fromCache = new Set<BlockResult>(done.flatMap((hit) => hit?.blocks ?? []));
   const results: BlockResult[][] = parsed.map((p) => (p ? new Array(p.spec.blocks.length) : []));
   const misses: Array<{ record: number; block: number; file: string; entry: SpecEntry }> = [];
   parsed.forEach((p, record) => {
     p?.spec.blocks.forEach((entry, block) => {
       const stored = options.recompute ? null : cache.get(p.spec.file, entry);
-      if (stored) results[record][block] = stored;
+      if (stored) fromCache.add((results[record][block] = stored));
       // A block that did not parse only needs its problems turned into a result, which this thread does.
       else if (entry.kind === 'invalid') results[record][block] = cache.put(entry, unparsedBlock(entry));
       else misses.push({ record, block, file: p.spec.file, entry });
@@ -145,7 +148,7 @@ export async function checkLog(files: string[], options: CheckLogOptions = {}): 
   const blocks = records.reduce((n, record) => n + record.blocks.length, 0);
   return {
     log: { tool: { name: 'groundwork', version: TOOL_VERSION }, records },
-    stats: { blocks, evaluated: blocks - cache.stats.hits, cached: cache.stats.hits, corrupt: cache.stats.corrupt, timedOut, overMemory, writeErrors: cache.stats.writeErrors, workers: config.workers },
+    stats: { blocks, evaluated: blocks - cache.stats.hits, cached: cache.stats.hits, corrupt: cache.stats.corrupt, timedOut, overMemory, writeErrors: cache.stats.writeErrors, workers: config.workers, fromCache },
   };
 }
 

@@ -8,6 +8,7 @@ import { axialSpace } from '../engine/spaces/axial.ts';
 import { cartesianSpace } from '../engine/spaces/cartesian.ts';
 import { compileBlock } from '../expr/compile-block.ts';
 import { compileFieldBlock } from '../expr/compile-field-block.ts';
+import { texOptions } from '../expr/symbol-tex.ts';
 import { coordinatesOf, isLineSpace, type BlockEntry, type BlockSpec, type LineSpace, type SpecProblem } from '../spec/types.ts';
 import { inputHash } from './input-hash.ts';
 import { invalidBlock, unparsedBlock } from './invalid-block.ts';
@@ -30,19 +31,23 @@ export function evaluateBlock(file: string, entry: BlockEntry): BlockResult {
     return invalidBlock(spec.id, spec.line, spec.caption, problems, hash, started);
   }
   const { engine, trees, mass } = evaluated;
+  // Units bound as constants in quantity mode stay upright; everything the author declared is a symbol.
+  const bound = new Set(spec.quantity?.bound ?? []);
+  const declared = new Set([...coordinatesOf(spec.space), ...spec.varied.map((p) => p.name), ...Object.keys(spec.fixed), ...Object.keys(spec.constants).filter((name) => !bound.has(name))]);
+  const tex = texOptions(declared);
   const inputs: BlockInputs = {
     space: spec.space,
     coordinates: coordinatesOf(spec.space),
     box: spec.box,
     angularMomentum: spec.angularMomentum,
     mass: trees.mass ? null : mass,
-    massTex: trees.mass?.toTex() ?? null,
+    massTex: trees.mass?.toTex(tex) ?? null,
     masses: spec.masses,
     coordinate: coordinatesOf(spec.space)[0],
     lengthUnit: 'bohr',
-    potentialTex: trees.potential.toTex(),
-    trialTex: trees.trial?.toTex() ?? null,
-    basisTex: trees.basis?.map((tree) => tree.toTex()) ?? null,
+    potentialTex: trees.potential.toTex(tex),
+    trialTex: trees.trial?.toTex(tex) ?? null,
+    basisTex: trees.basis?.map((tree) => tree.toTex(tex)) ?? null,
     constants: spec.constants,
     ranges: spec.varied.map(({ name, start, min, max }) => ({ name, start, min, max })),
   };
@@ -169,7 +174,7 @@ function toBlockResult(file: string, spec: BlockSpec, inputs: BlockInputs, engin
     claim: spec.claim
       ? { energy: spec.claim.energy?.value ?? null, tolerance: spec.claim.energy?.tolerance ?? null, parameters: spec.claim.parameters }
       : null,
-    checks: engine.checks.map(({ name, pass, detail }) => ({ name, pass, detail })),
+    checks: engine.checks.map(({ name, pass, detail, measure }) => (measure ? { name, pass, detail, measure } : { name, pass, detail })),
     plots: engine.plots,
     diagnostics: {
       energyError: engine.energyError,

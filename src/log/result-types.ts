@@ -2,6 +2,7 @@ import type { BasisDiagnostics } from '../engine/evaluate-problem.ts';
 import type { PlotData } from '../engine/plot-data.ts';
 import type { Check, Status } from '../engine/status.ts';
 import type { FrontMatter, QuantityMode, Space, SpecProblem } from '../spec/types.ts';
+import type { Verdict } from './block-verdict.ts';
 
 /** The machine-readable result of RECORD-FORMAT.md: what `groundwork check --json` prints and the pages render. */
 
@@ -94,6 +95,8 @@ export interface BlockResult {
   quantity: QuantityMode | null;
   inputHash: string;
   timeMs: number;
+  /** The reviewer's summary derived from the fields above (block-verdict.ts); present in JSON output, not in the cache. */
+  verdict?: Verdict;
 }
 
 export interface RecordResult {

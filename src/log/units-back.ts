@@ -80,6 +80,13 @@ export function inBlockUnits(result: BlockResult, units: QuantityMode): BlockRes
       lower: maybe(result.bounds.lower),
       weinstein: result.bounds.weinstein && [energy(result.bounds.weinstein[0]), energy(result.bounds.weinstein[1])],
     },
+    // The numbers beside a check's words are stated in the same units as the words.
+    checks: result.checks.map((c) => {
+      if (!c.measure || c.measure.quantity === 'ratio') return c;
+      const q = c.measure.quantity;
+      const scale = q === 'energy' ? E : s.parameter(q.parameter).perAtomic;
+      return { ...c, measure: { ...c.measure, value: c.measure.value * scale, limit: c.measure.limit * scale } };
+    }),
     claim: claim && {
       energy: maybe(claim.energy),
       tolerance: maybe(claim.tolerance),
