@@ -4,6 +4,7 @@ import { evaluateProblem, type EngineResult } from '../engine/evaluate-problem.t
 import type { ProblemBase } from '../engine/problem.ts';
 import { compileBlock } from '../expr/compile-block.ts';
 import type { BlockEntry, BlockSpec, SpecProblem } from '../spec/types.ts';
+import { hamiltonianSamples } from './hamiltonian-samples.ts';
 import { inputHash } from './input-hash.ts';
 import { invalidBlock, unparsedBlock } from './invalid-block.ts';
 import { blockUnitsDisplay, inBlockUnits } from './units-back.ts';
@@ -66,7 +67,7 @@ export function evaluateBlock(file: string, entry: BlockEntry): BlockResult {
     constants: spec.constants,
     ranges: spec.varied.map(({ name, start, min, max }) => ({ name, start, min, max })),
   };
-  const result = toBlockResult(file, spec, inputs, engine, hash, started);
+  const result = { ...toBlockResult(file, spec, inputs, engine, hash, started), hamiltonian: hamiltonianSamples(spec, compiled.block) };
   return spec.quantity ? inBlockUnits(result, spec.quantity) : result;
 }
 
@@ -159,6 +160,7 @@ function toBlockResult(file: string, spec: BlockSpec, inputs: BlockInputs, engin
       referenceMs: engine.timings.referenceMs,
     },
     quantity: null,
+    hamiltonian: null,
     inputHash: hash,
     timeMs: performance.now() - started,
   };

@@ -34,6 +34,23 @@ export interface BlockInputs {
   ranges: Array<{ name: string; start: number; min: number; max: number }>;
 }
 
+/**
+ * The block's Hamiltonian as the systems view compares it (src/log/systems.ts): always in atomic units, whatever
+ * units the block is written in; potential and mass sampled at samplePoints(space, box), null where not finite.
+ */
+export interface Hamiltonian {
+  space: string;
+  /** The walls in bohr, or null. */
+  box: [number, number] | null;
+  angularMomentum: number;
+  /** The name the block's `system:` field gives, or null. */
+  system: string | null;
+  /** Hartree. */
+  potential: Array<number | null>;
+  /** Electron masses. */
+  mass: Array<number | null>;
+}
+
 export interface BlockResult {
   id: string;
   line: number;
@@ -86,6 +103,8 @@ export interface BlockResult {
   } | null;
   /** Quantity mode: the units the numbers above are stated in and the physical constants behind them; null in atomic units. */
   quantity: QuantityMode | null;
+  /** What the block's Hamiltonian is, for finding the other blocks on the same system; null when its expressions did not compile. */
+  hamiltonian: Hamiltonian | null;
   inputHash: string;
   timeMs: number;
 }

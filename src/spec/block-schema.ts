@@ -61,6 +61,7 @@ export const blockSchema = z
   .object({
     id: z.string({ required_error: 'every block needs an id', invalid_type_error: 'must be text' }).regex(/^[A-Za-z0-9][A-Za-z0-9_-]*$/, 'must be a slug: letters, digits, - and _'),
     caption: z.string().optional(),
+    system: z.string({ invalid_type_error: 'must be text: the name of the physical system, shared by the blocks about it' }).regex(/^[A-Za-z0-9][A-Za-z0-9_-]*$/, 'must be a slug: letters, digits, - and _').optional(),
     units: z.union([z.literal('atomic'), z.record(z.string())], { errorMap: () => ({ message: 'must be atomic or a map such as { length: nm, energy: meV }' }) }).optional(),
     space: z.enum(['line', 'half-line', 'radial'], { errorMap: () => ({ message: 'must be one of line, half-line, radial' }) }).optional(),
     box: z.tuple([quantity, quantity], { errorMap: () => ({ message: 'must be [a, b] with two numbers' }) }).optional(),

@@ -139,6 +139,7 @@ function quantitySource(raw: RawBlock & { units: Record<string, string> }, line:
   return {
     id: raw.id,
     caption: raw.caption ?? null,
+    ...(raw.system !== undefined ? { system: raw.system } : {}),
     line,
     units: { entries: Object.fromEntries(Object.entries(raw.units).map(([k, v]) => [k, at(['units', k], v)])), line: lineOf(['units']) },
     space: raw.space ?? 'line',
@@ -244,6 +245,7 @@ function toSpec(raw: AtomicBlock, line: number, doc: Document, lineOf: (path: (s
   return {
     id: raw.id,
     caption: raw.caption ?? null,
+    ...(raw.system !== undefined ? { system: raw.system } : {}),
     line,
     units: 'atomic',
     space: raw.space ?? 'line',

@@ -68,6 +68,8 @@ export interface DeclaredLevel {
 export interface BlockSpec {
   id: string;
   caption: string | null;
+  /** The system the block is about, when the author names it (`system:`); absent otherwise, so other blocks keep their input hash. */
+  system?: string;
   line: number;
   units: 'atomic';
   space: Space;

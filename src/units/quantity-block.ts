@@ -16,6 +16,7 @@ export type { QuantitySource } from './field-reader.ts';
 export interface QuantityBlockSource {
   id: string;
   caption: string | null;
+  system?: string;
   line: number;
   /** The `units` map as written ({ length: nm, energy: meV }), and the line of the field. */
   units: { entries: Record<string, QuantitySource>; line: number };
@@ -194,6 +195,7 @@ export function convertQuantityBlock(file: string, block: QuantityBlockSource): 
     spec: {
       id: block.id,
       caption: block.caption,
+      ...(block.system !== undefined ? { system: block.system } : {}),
       line: block.line,
       units: 'atomic',
       space: block.space,
