@@ -28,12 +28,13 @@ describe('log configuration', () => {
       memoryLimitMb: DEFAULTS.memoryLimitMb,
       workers: os.availableParallelism(),
       cacheFolder: join(root, DEFAULTS.cacheFolder),
+      historyDepth: DEFAULTS.historyDepth,
     });
   });
 
   it('takes each field from groundwork.config.json, relative cache folders from the log root', () => {
-    const root = logRoot(JSON.stringify({ timeLimitSeconds: 2.5, memoryLimitMb: 256, workers: 3, cacheFolder: 'build/results' }));
-    expect(loadLogConfig(root)).toEqual({ timeLimitSeconds: 2.5, memoryLimitMb: 256, workers: 3, cacheFolder: join(root, 'build', 'results') });
+    const root = logRoot(JSON.stringify({ timeLimitSeconds: 2.5, memoryLimitMb: 256, workers: 3, cacheFolder: 'build/results', historyDepth: 5 }));
+    expect(loadLogConfig(root)).toEqual({ timeLimitSeconds: 2.5, memoryLimitMb: 256, workers: 3, cacheFolder: join(root, 'build', 'results'), historyDepth: 5 });
     expect(loadLogConfig(logRoot(JSON.stringify({ workers: 1 }))).timeLimitSeconds).toBe(DEFAULTS.timeLimitSeconds);
   });
 

@@ -1,0 +1,93 @@
+import { relative, resolve } from 'node:path';
+import { checkLog, type CheckLogOptions, type RecordSource } from './check-log.ts';
+import { fileCommits, repositoryTop, textAt, type FileCommit } from './git-revisions.ts';
+import type { BlockResult, RecordResult } from './result-types.ts';
+
+/** A block's result at one version of its record. */
+export interface HistoryPoint {
+  /** The commit, or null for uncommitted changes in the working tree. */
+  commit: FileCommit | null;
+  /** The block's id at that version (a block renamed in place keeps one history). */
+  id: string;
+  status: BlockResult['status'];
+  energy: BlockResult['energy'];
+  inputHash: string;
+}
+
+/** The versions of one block, oldest first; `id` is its id now. */
+export interface BlockHistory {
+  id: string;
+  points: HistoryPoint[];
+}
+
+export interface HistoryOptions extends CheckLogOptions {
+  /** How many commits back to look, per record (historyDepth in groundwork.config.json). */
+  depth: number;
+}
+
+/**
+ * The history of every block of the given records: each record's text at every commit that changed it (the newest
+ * `depth`), evaluated through checkLog, so versions whose blocks are in the cache cost nothing and the rest run in
+ * the worker pool under the usual limits. `current` holds the records' results now (the working tree).
+ */
+export async function recordHistories(current: RecordResult[], options: HistoryOptions): Promise<Map<string, BlockHistory[]>> {
+  const root = options.root ?? process.cwd();
+  const versions: Array<{ file: string; commit: FileCommit; source: RecordSource }> = [];
+  for (const record of current) {
+    const absolute = resolve(root, record.file);
+    const commits = fileCommits(absolute, options.depth);
+    if (commits.length === 0) continue;
+    const top = repositoryTop(resolve(absolute, '..'));
+    for (const commit of commits) {
+      const text = textAt(top, commit.hash, relative(top, absolute));
+      if (text !== null) versions.push({ file: record.file, commit, source: { name: record.file, text } });
+    }
+  }
+  const histories = new Map<string, BlockHistory[]>();
+  if (versions.length === 0) return histories;
+  const { log } = await checkLog(
+    versions.map((v) => v.source),
+    options,
+  );
+  for (const record of current) {
+    const past = versions.flatMap((v, i) => (v.file === record.file ? [{ commit: v.commit, blocks: log.records[i].blocks }] : [])).reverse();
+    if (past.length === 0) continue;
+    // The working tree is a version too when it differs from the newest commit.
+    const newest = past[past.length - 1].blocks;
+    const changed = newest.length !== record.blocks.length || newest.some((b, i) => b.inputHash !== record.blocks[i].inputHash || b.id !== record.blocks[i].id);
+    histories.set(record.file, threadVersions([...past, ...(changed ? [{ commit: null, blocks: record.blocks }] : [])], record.blocks));
+  }
+  return histories;
+}
+
+/**
+ * Threads block results through the versions of a record (oldest first) by id. A block whose id disappears
+ * while exactly one new id appears at the same line is the same block renamed; anything less clear starts a
+ * new history. Returns the histories of the blocks in `now`, in their order.
+ */
+export function threadVersions(versions: Array<{ commit: FileCommit | null; blocks: BlockResult[] }>, now: BlockResult[]): BlockHistory[] {
+  let open = new Map<string, HistoryPoint[]>();
+  for (const { commit, blocks } of versions) {
+    const next = new Map<string, HistoryPoint[]>();
+    const ids = new Set(blocks.map((b) => b.id));
+    const vanished = [...open.keys()].filter((id) => !ids.has(id));
+    const arrived = blocks.filter((b) => !open.has(b.id));
+    for (const block of blocks) {
+      let points = open.get(block.id);
+      if (!points && vanished.length === 1 && arrived.length === 1) {
+        const before = open.get(vanished[0])!;
+        if (lineOf(versions, before) === block.line) points = before;
+      }
+      next.set(block.id, [...(points ?? []), { commit, id: block.id, status: block.status, energy: block.energy, inputHash: block.inputHash }]);
+    }
+    open = next;
+  }
+  return now.map((block) => ({ id: block.id, points: open.get(block.id) ?? [] }));
+}
+
+/** The line a block had at its latest version. */
+function lineOf(versions: Array<{ commit: FileCommit | null; blocks: BlockResult[] }>, points: HistoryPoint[]): number | null {
+  const last = points[points.length - 1];
+  const version = versions.find((v) => v.commit === last.commit);
+  return version?.blocks.find((b) => b.id === last.id)?.line ?? null;
+}
