@@ -49,7 +49,7 @@ describe('log configuration', () => {
   it('refuses unknown fields, JSON errors and non-objects', () => {
     const unknown = refusal(JSON.stringify({ worker: 2 }));
     expect(unknown.field).toBe('worker');
-    expect(unknown.message).toMatch(/unknown field \(known: timeLimitSeconds, memoryLimitMb, workers, cacheFolder\)/);
+    expect(unknown.message).toMatch(/unknown field \(known: timeLimitSeconds, memoryLimitMb, workers, cacheFolder, historyDepth\)/);
     expect(refusal('{ "workers": 2, }').message).toMatch(new RegExp(`${CONFIG_FILE}: is not valid JSON`));
     expect(refusal('[1, 2]').message).toMatch(/must be a JSON object of fields/);
   });
