@@ -5,6 +5,7 @@ import { describeLevel } from '../engine/parity.ts';
 import type { BlockInputs, BlockResult } from '../log/result-types.ts';
 import { escapeHtml, formatNumber } from './html.ts';
 import { renderPlots } from './plots.ts';
+import { renderSystemLink, type SystemLink } from './review-html.ts';
 
 const tex = (source: string, display = false) => katex.renderToString(source, { displayMode: display, throwOnError: false, output: 'htmlAndMathml' });
 
@@ -21,6 +22,8 @@ export interface PanelContext {
   file: string;
   git: LastCommit | null;
   provenance: Provenance;
+  /** The system a block belongs to across the log, when it shares one with other blocks. */
+  systemOf?: (blockId: string) => SystemLink | null;
 }
 
 /** The result panel that stands in a record's page where its spec block was written. */
@@ -30,6 +33,8 @@ export function renderBlockPanel(result: BlockResult, context: PanelContext): st
     `<header><span class="gw-status">${escapeHtml(STATUS_WORDS[result.status])}</span> <code>${escapeHtml(result.id)}</code>${result.caption ? ` <span class="gw-caption">${escapeHtml(result.caption)}</span>` : ''}</header>`,
   ];
   if (result.message) parts.push(`<p class="gw-message">${escapeHtml(result.message)}</p>`);
+  const system = context.systemOf?.(result.id);
+  if (system) parts.push(renderSystemLink(system));
   if (result.problems.length > 0) {
     parts.push('<ul class="gw-problems">');
     for (const p of result.problems) parts.push(`<li><code>${escapeHtml(p.file)}:${p.line}</code> ${p.field ? `<code>${escapeHtml(p.field)}</code>: ` : ''}${escapeHtml(p.message)}</li>`);

@@ -109,7 +109,8 @@ function levelPlot(result: BlockResult, units: PlotUnits): string {
   );
 }
 
-function draw(options: Plot.PlotOptions, caption: string): string {
+/** A plot as inline SVG in the site's print style, with its caption. */
+export function draw(options: Plot.PlotOptions, caption: string): string {
   const figure = Plot.plot({ document, width: WIDTH, height: HEIGHT, marginLeft: 58, marginRight: 16, style: STYLE, caption, ...options }) as unknown as { outerHTML: string };
   return figure.outerHTML;
 }
