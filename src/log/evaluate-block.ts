@@ -36,7 +36,13 @@ export function evaluateBlock(file: string, entry: BlockEntry): BlockResult {
     parameters: spec.varied,
     reference: {
       solve: spec.reference.solve,
-      published: spec.reference.energy ? { ...spec.reference.energy, source: spec.reference.source ?? '' } : null,
+      published: spec.reference.energy
+        ? {
+            ...spec.reference.energy,
+            source: spec.reference.source ?? '',
+            toleranceBasis: spec.reference.toleranceGiven ? 'as reference.tolerance gives it' : 'one unit in its last written digit, since published tables are often truncated; set reference.tolerance to change it',
+          }
+        : null,
     },
     claim: spec.claim,
     plots: spec.report.plots,

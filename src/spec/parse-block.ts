@@ -260,6 +260,7 @@ function toSpec(raw: AtomicBlock, line: number, doc: Document, lineOf: (path: (s
       solve: raw.reference?.solve ?? true,
       energy: raw.reference?.energy === undefined ? null : claimed(['reference', 'energy'], raw.reference.energy, raw.reference.tolerance, 1),
       source: raw.reference?.source ?? null,
+      ...(raw.reference?.tolerance !== undefined ? { toleranceGiven: true as const } : {}),
     },
     claim: raw.claim
       ? { energy: raw.claim.energy === undefined ? null : claimed(['claim', 'energy'], raw.claim.energy, raw.claim.tolerance), parameters: claimParameters }

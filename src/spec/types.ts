@@ -95,6 +95,8 @@ export interface BlockSpec {
     solve: boolean;
     energy: Claimed | null;
     source: string | null;
+    /** Set when the author wrote `reference.tolerance` (absent otherwise, so other blocks keep their input hash). */
+    toleranceGiven?: true;
   };
   claim: {
     energy: Claimed | null;

@@ -159,6 +159,7 @@ export function convertQuantityBlock(file: string, block: QuantityBlockSource): 
     solve: block.reference.solve,
     energy: block.reference.energy ? reader.claimed('reference.energy', block.reference.energy, toleranceOf('reference.tolerance', block.reference.tolerance), readEnergy, 1) : null,
     source: block.reference.source,
+    ...(block.reference.tolerance ? { toleranceGiven: true as const } : {}),
   };
   let claim: BlockSpec['claim'] = null;
   if (block.claim) {
