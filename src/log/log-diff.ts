@@ -1,5 +1,8 @@
+import { readFileSync } from 'node:fs';
 import { relative, resolve } from 'node:path';
+import { parse } from 'yaml';
 import { STATUS_ORDER } from '../engine/status.ts';
+import { findSpecBlocks } from '../spec/find-blocks.ts';
 import { checkLog, collectRecordFiles, type CheckLogOptions, type CheckStats } from './check-log.ts';
 import { markdownFilesAt, repositoryTop, resolveRevision, textAt } from './git-revisions.ts';
 import type { BlockResult, LogResult, RecordResult } from './result-types.ts';
@@ -55,7 +58,6 @@ export async function diffLog(revision: string, paths: string[], options: CheckL
   const { files } = collectRecordFiles(absolute);
   const [before, after] = [await checkLog(oldSources, options), await checkLog(files, options)];
   const texts = { before: new Map(oldSources.map((s) => [s.name, s.text])), after: new Map<string, string>() };
-  const { readFileSync } = await import('node:fs');
   for (const f of files) texts.after.set(relative(root, f), readFileSync(f, 'utf8'));
   const changes = await compareLogs(before.log, after.log, texts);
   const total = after.log.records.reduce((n, r) => n + r.blocks.length, 0);
@@ -100,8 +102,6 @@ export function worsening(before: BlockSnapshot, after: BlockSnapshot): string |
 /** The top-level spec fields of block `id` whose written values differ between two texts of its record. */
 async function changedFields(before: string | undefined, after: string | undefined, id: string): Promise<string[]> {
   if (before === undefined || after === undefined) return [];
-  const { findSpecBlocks } = await import('../spec/find-blocks.ts');
-  const { parse } = await import('yaml');
   const fieldsOf = (text: string): Record<string, unknown> => {
     for (const fenced of findSpecBlocks(text)) {
       try {

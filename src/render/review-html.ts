@@ -56,9 +56,9 @@ export function renderHistory(histories: BlockHistory[]): string {
       const what = p.commit ? escapeHtml(p.commit.subject) : 'uncommitted changes';
       const renamed = p.id !== h.id ? ` (as <code>${escapeHtml(p.id)}</code>)` : '';
       const energy = p.energy ? `${formatNumber(p.energy.value)} ${escapeHtml(p.energy.unit ?? '')}` : '—';
-      return `<tr><td class="gw-date">${when}</td><td>${where}${renamed}</td><td>${who}</td><td>${what}</td><td>${status(p.status)}</td><td class="gw-num">${energy}</td></tr>`;
+      return `<tr><td class="gw-date">${when}</td><td>${status(p.status)}</td><td class="gw-num">${energy}</td><td>${where}${renamed}</td><td class="gw-wide-only">${who}</td><td>${what}</td></tr>`;
     });
-    return `<table class="gw-history"><caption><code>${escapeHtml(h.id)}</code>: ${h.points.length} version${h.points.length === 1 ? '' : 's'}, newest first</caption><thead><tr><th>date</th><th>commit</th><th>author</th><th>message</th><th>status</th><th>E</th></tr></thead><tbody>${rows.join('')}</tbody></table>`;
+    return `<table class="gw-history"><caption><code>${escapeHtml(h.id)}</code>: ${h.points.length} version${h.points.length === 1 ? '' : 's'}, newest first</caption><thead><tr><th>date</th><th>status</th><th>E</th><th>commit</th><th class="gw-wide-only">author</th><th>message</th></tr></thead><tbody>${rows.join('')}</tbody></table>`;
   });
   return `<section class="gw-history-section" id="history"><h2>History</h2><p class="gw-note">Each block recomputed as its record stood at every commit that changed it (the newest, up to historyDepth in groundwork.config.json), by today's evaluator.</p><div class="gw-scroll">${tables.join('\n')}</div></section>`;
 }
@@ -70,10 +70,11 @@ function methodOf(m: SystemMember): string {
 
 /** The body of a system's page: its bracket per level, every block on it across the log, and any incompatible pair. */
 export function renderSystem(system: LogSystem, links: ReviewLinks, plot: string): string {
-  const memberLink = (i: number) => {
+  const blockLink = (i: number) => {
     const m = system.members[i];
-    return `<a href="${escapeHtml(links.record(m.file, m.block))}"><code>${escapeHtml(m.block)}</code></a> (${escapeHtml(m.title ?? m.file)})`;
+    return `<a href="${escapeHtml(links.record(m.file, m.block))}"><code>${escapeHtml(m.block)}</code></a>`;
   };
+  const memberLink = (i: number) => `${blockLink(i)} (${escapeHtml(system.members[i].title ?? system.members[i].file)})`;
   const brackets = system.brackets.map((b) => {
     const rows = [
       ['lowest upper bound', b.upper ? `${formatNumber(b.upper.value)} hartree, from ${memberLink(b.upper.member)}` : '—'],
@@ -87,13 +88,13 @@ export function renderSystem(system: LogSystem, links: ReviewLinks, plot: string
   const conflicts = system.conflicts.map((c) => `<li>${memberLink(c.upperMember)} has upper bound ${formatNumber(c.upper)} hartree, below the lower bound ${formatNumber(c.lower)} hartree of ${memberLink(c.lowerMember)}: at least one of the two results is wrong.</li>`);
   const rows = system.members.map(
     (m, i) =>
-      `<tr><td class="gw-date">${escapeHtml(m.date ?? '')}</td><td>${memberLink(i)}</td><td>${escapeHtml(m.author ?? '')}</td><td>${methodOf(m)}</td><td>${escapeHtml(m.level)}</td><td>${status(m.status)}</td><td class="gw-num">${formatNumber(m.energy)}</td><td class="gw-num">${formatNumber(m.lower)}</td></tr>`,
+      `<tr><td class="gw-date">${escapeHtml(m.date ?? '')}</td><td>${blockLink(i)}</td><td>${status(m.status)}</td><td class="gw-num">${formatNumber(m.energy)}</td><td class="gw-num">${formatNumber(m.lower)}</td><td>${escapeHtml(m.level)}</td><td>${methodOf(m)}</td><td>${escapeHtml(m.title ?? m.file)}</td><td class="gw-wide-only">${escapeHtml(m.author ?? '')}</td></tr>`,
   );
   return [
     `<div class="gw-brackets">${brackets.join('\n')}</div>`,
     conflicts.length > 0 ? `<ul class="gw-problems gw-conflicts">${conflicts.join('')}</ul>` : '',
     plot,
-    `<div class="gw-scroll"><table class="gw-index gw-members"><caption>Every block on this system (energies in hartree, whatever unit the block states them in)</caption><thead><tr><th>date</th><th>block</th><th>author</th><th>trial or basis</th><th>level</th><th>status</th><th>E</th><th>lower bound</th></tr></thead><tbody>${rows.join('')}</tbody></table></div>`,
+    `<div class="gw-scroll"><table class="gw-index gw-members"><caption>Every block on this system (energies in hartree, whatever unit the block states them in)</caption><thead><tr><th>date</th><th>block</th><th>status</th><th>E</th><th>lower bound</th><th>level</th><th>trial or basis</th><th>record</th><th class="gw-wide-only">author</th></tr></thead><tbody>${rows.join('')}</tbody></table></div>`,
   ].join('\n');
 }
 

@@ -16,12 +16,15 @@ export function systemPlot(system: LogSystem): string {
   const when = (date: string) => new Date(`${date}T00:00:00Z`);
   const estimates = dated.map((m) => ({ date: when(m.date!), energy: m.energy!, block: m.block }));
   const lowers = dated.filter((m) => m.lower !== null).map((m) => ({ date: when(m.date!), energy: m.lower! }));
-  const marks: Plot.Markish[] = [
-    Plot.dot(estimates, { x: 'date', y: 'energy', fill: INK, r: 4, symbol: 'circle' }),
-    Plot.dot(lowers, { x: 'date', y: 'energy', stroke: INK, fill: 'white', r: 4, symbol: 'triangle' }),
-  ];
+  // Bounds first, then the estimates: a block whose bound meets its energy shows its dot inside the triangle.
+  const marks: Plot.Markish[] = [];
   if (bracket.upper) marks.push(Plot.ruleY([bracket.upper.value], { stroke: INK, strokeDasharray: '6,4' }));
   if (bracket.lower) marks.push(Plot.ruleY([bracket.lower.value], { stroke: INK, strokeDasharray: '2,3' }));
+  marks.push(
+    Plot.dot(lowers, { x: 'date', y: 'energy', stroke: INK, fill: 'white', r: 7, symbol: 'triangle' }),
+    Plot.dot(estimates, { x: 'date', y: 'energy', fill: INK, r: 3, symbol: 'circle' }),
+    Plot.text(estimates, { x: 'date', y: 'energy', text: 'block', dy: -12, fill: INK }),
+  );
   return `<div class="gw-plots">${draw(
     { x: { label: 'record date', type: 'utc', nice: true }, y: { label: 'energy (hartree)', grid: true, nice: true }, marks },
     `Estimates of the ${bracket.level} level against their records' dates. Filled dots: each block's energy (an upper bound); open triangles: its lower bound; dashed: the lowest upper bound; dotted: the highest lower bound.`,

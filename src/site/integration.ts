@@ -29,13 +29,13 @@ export default function groundwork(options: IntegrationOptions): AstroIntegratio
         // Vite, which runs this module, cannot import anything once the config is loaded: the parser is passed.
         const { log, stats } = await checkLog(files, { root, config, parseRecord });
         writeBuildResults(config.cacheFolder, log);
+        logger.info(`${stats.blocks} blocks: ${stats.evaluated} evaluated, ${stats.cached} from cache (${stats.workers} workers)${stats.corrupt ? `, ${stats.corrupt} damaged cache entries replaced` : ''}${stats.timedOut ? `, ${stats.timedOut} over the time limit` : ''}`);
         // The review of the whole log: systems across records, each record's history, and the changes since a revision.
         const started = performance.now();
         const histories = await recordHistories(log.records, { root, config, parseRecord, depth: config.historyDepth });
         const changes = SINCE_REVISION ? await diffLog(SINCE_REVISION, [options.records], { root, config, parseRecord }) : null;
         writeBuildReview(config.cacheFolder, { systems: findSystems(log.records), histories: Object.fromEntries(histories), changes });
         logger.info(`review: systems, ${histories.size} record histories${changes ? `, ${changes.changes.length} blocks changed since ${SINCE_REVISION}` : ''} (${Math.round(performance.now() - started)} ms)`);
-        logger.info(`${stats.blocks} blocks: ${stats.evaluated} evaluated, ${stats.cached} from cache (${stats.workers} workers)${stats.corrupt ? `, ${stats.corrupt} damaged cache entries replaced` : ''}${stats.timedOut ? `, ${stats.timedOut} over the time limit` : ''}`);
       },
     },
   };
