@@ -108,6 +108,8 @@ export async function main(argv: string[], out: (text: string) => void, err: (te
     const { diffCommand } = await import('./diff-command.ts');
     const outcome = await diffCommand(positional[0], paths, { root: cwd, config });
     if ('error' in outcome) return refuse([{ path: null, message: outcome.error }], false);
+    const { before, after } = outcome.diff.stats;
+    err(`groundwork: diff: ${count(outcome.diff.changes.length, 'block')} changed, ${before.evaluated + after.evaluated} evaluated (${before.evaluated} at ${positional[0]}, ${after.evaluated} in the working tree), ${before.cached + after.cached} from cache`);
     out(json ? JSON.stringify({ ...outcome.diff, errors: [] }, null, 2) : outcome.text);
     return outcome.diff.changes.some((c) => c.worse !== null) ? EXIT.notConfirmed : EXIT.confirmed;
   }

@@ -37,30 +37,50 @@ export function resolveRevision(top: string, revision: string): string {
   return git(top, ['rev-parse', '--verify', '--quiet', '--end-of-options', `${revision}^{commit}`]).trim();
 }
 
-/** The newest `limit` commits that changed the file, newest first; empty when it was never committed or git is missing. */
-export function fileCommits(file: string, limit: number): FileCommit[] {
-  try {
-    const top = repositoryTop(resolve(file, '..'));
-    const out = git(top, ['log', `-n${limit}`, '--format=%H%x1f%an%x1f%aI%x1f%s', '--', relative(top, resolve(file))]);
-    return out
-      .split('\n')
-      .filter(Boolean)
-      .map((line) => {
-        const [hash, author, date, subject] = line.split('\x1f');
-        return { hash, author, date, subject };
-      });
-  } catch {
-    return [];
+/**
+ * For each file (relative to the repository top), the newest `limit` commits that changed it, newest first, from one
+ * `git log` over all of them (one process for the whole log, not one per record).
+ */
+export function commitsOfFiles(top: string, paths: string[], limit: number): Map<string, FileCommit[]> {
+  const found = new Map<string, FileCommit[]>(paths.map((p) => [p, []]));
+  if (paths.length === 0 || limit <= 0) return found;
+  const out = git(top, ['log', '--format=%x1e%H%x1f%an%x1f%aI%x1f%s', '--name-only', '--no-renames', '--', ...paths]);
+  for (const entry of out.split('\x1e').slice(1)) {
+    const [header, ...names] = entry.split('\n');
+    const [hash, author, date, subject] = header.split('\x1f');
+    for (const name of names) {
+      const commits = found.get(name);
+      if (commits && commits.length < limit) commits.push({ hash, author, date, subject });
+    }
   }
+  return found;
 }
 
-/** A file's text at a commit (path relative to the repository top); null when the commit has no such file. */
-export function textAt(top: string, commit: string, path: string): string | null {
+/** The texts of files at commits (`commit:path` each), read by one `git cat-file --batch`; null where there is no such file. */
+export function textsAt(top: string, wanted: Array<{ commit: string; path: string }>): Array<string | null> {
+  if (wanted.length === 0) return [];
+  const input = wanted.map((w) => `${w.commit}:${w.path.split('\\').join('/')}\n`).join('');
+  let out: Buffer;
   try {
-    return git(top, ['show', `${commit}:${path.split('\\').join('/')}`]);
-  } catch {
-    return null;
+    out = execFileSync('git', ['cat-file', '--batch'], { cwd: top, input, maxBuffer: 1024 * 1024 * 1024, stdio: ['pipe', 'pipe', 'pipe'], timeout: 120_000 });
+  } catch (error) {
+    throw new GitError((error as { stderr?: Buffer }).stderr?.toString().trim() || (error as Error).message);
   }
+  const texts: Array<string | null> = [];
+  let at = 0;
+  for (let i = 0; i < wanted.length; i++) {
+    const end = out.indexOf(10, at);
+    const header = out.subarray(at, end).toString();
+    at = end + 1;
+    const size = / blob (\d+)$/.exec(header);
+    if (!size) {
+      texts.push(null);
+      continue;
+    }
+    texts.push(out.subarray(at, at + Number(size[1])).toString('utf8'));
+    at += Number(size[1]) + 1;
+  }
+  return texts;
 }
 
 /** The Markdown files under `paths` (absolute) at a commit, relative to the repository top. */

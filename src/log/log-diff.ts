@@ -4,7 +4,7 @@ import { parse } from 'yaml';
 import { STATUS_ORDER } from '../engine/status.ts';
 import { findSpecBlocks } from '../spec/find-blocks.ts';
 import { checkLog, collectRecordFiles, type CheckLogOptions, type CheckStats } from './check-log.ts';
-import { markdownFilesAt, repositoryTop, resolveRevision, textAt } from './git-revisions.ts';
+import { markdownFilesAt, repositoryTop, resolveRevision, textsAt } from './git-revisions.ts';
 import type { BlockResult, LogResult, RecordResult } from './result-types.ts';
 
 /** A block's numbers at one side of a comparison; energies in the block's own unit, with hartree beside for comparing. */
@@ -51,15 +51,14 @@ export async function diffLog(revision: string, paths: string[], options: CheckL
   const top = repositoryTop(root);
   const commit = resolveRevision(top, revision);
   const absolute = paths.map((p) => resolve(root, p));
-  const oldSources = markdownFilesAt(top, commit, absolute).flatMap((path) => {
-    const text = textAt(top, commit, path);
-    return text === null ? [] : [{ name: relative(root, resolve(top, path)), text }];
-  });
+  const oldFiles = markdownFilesAt(top, commit, absolute);
+  const texts = textsAt(top, oldFiles.map((path) => ({ commit, path })));
+  const oldSources = oldFiles.flatMap((path, i) => (texts[i] === null ? [] : [{ name: relative(root, resolve(top, path)), text: texts[i]! }]));
   const { files } = collectRecordFiles(absolute);
   const [before, after] = [await checkLog(oldSources, options), await checkLog(files, options)];
-  const texts = { before: new Map(oldSources.map((s) => [s.name, s.text])), after: new Map<string, string>() };
-  for (const f of files) texts.after.set(relative(root, f), readFileSync(f, 'utf8'));
-  const changes = await compareLogs(before.log, after.log, texts);
+  const sides = { before: new Map(oldSources.map((s) => [s.name, s.text])), after: new Map<string, string>() };
+  for (const f of files) sides.after.set(relative(root, f), readFileSync(f, 'utf8'));
+  const changes = compareLogs(before.log, after.log, sides);
   const total = after.log.records.reduce((n, r) => n + r.blocks.length, 0);
   return { revision, commit, changes, unchanged: total - changes.filter((c) => c.change !== 'added').length, stats: { before: before.stats, after: after.stats } };
 }
@@ -70,7 +69,7 @@ const snapshot = (b: BlockResult): BlockSnapshot => {
 };
 
 /** Blocks of two results of a log matched by record and id; `texts` are the records' texts, for naming the fields that changed. */
-export async function compareLogs(before: LogResult, after: LogResult, texts: { before: Map<string, string>; after: Map<string, string> }): Promise<BlockChange[]> {
+export function compareLogs(before: LogResult, after: LogResult, texts: { before: Map<string, string>; after: Map<string, string> }): BlockChange[] {
   const byKey = (log: LogResult) => new Map(log.records.flatMap((r: RecordResult) => r.blocks.map((b) => [`${r.file}\0${b.id}`, { file: r.file, block: b }] as const)));
   const old = byKey(before);
   const now = byKey(after);
@@ -81,7 +80,7 @@ export async function compareLogs(before: LogResult, after: LogResult, texts: { 
       const worse = block.status === 'confirmed' ? null : `a new block that is ${block.status}`;
       changes.push({ file, id: block.id, change: 'added', fields: [], before: null, after: snapshot(block), worse });
     } else if (was.block.inputHash !== block.inputHash) {
-      const fields = await changedFields(texts.before.get(file), texts.after.get(file), block.id);
+      const fields = changedFields(texts.before.get(file), texts.after.get(file), block.id);
       changes.push({ file, id: block.id, change: 'changed', fields, before: snapshot(was.block), after: snapshot(block), worse: worsening(snapshot(was.block), snapshot(block)) });
     }
   }
@@ -100,7 +99,7 @@ export function worsening(before: BlockSnapshot, after: BlockSnapshot): string |
 }
 
 /** The top-level spec fields of block `id` whose written values differ between two texts of its record. */
-async function changedFields(before: string | undefined, after: string | undefined, id: string): Promise<string[]> {
+function changedFields(before: string | undefined, after: string | undefined, id: string): string[] {
   if (before === undefined || after === undefined) return [];
   const fieldsOf = (text: string): Record<string, unknown> => {
     for (const fenced of findSpecBlocks(text)) {

@@ -1,6 +1,6 @@
 import { relative, resolve } from 'node:path';
 import { checkLog, type CheckLogOptions, type RecordSource } from './check-log.ts';
-import { fileCommits, repositoryTop, textAt, type FileCommit } from './git-revisions.ts';
+import { commitsOfFiles, repositoryTop, textsAt, type FileCommit } from './git-revisions.ts';
 import type { BlockResult, RecordResult } from './result-types.ts';
 
 /** A block's result at one version of its record. */
@@ -31,19 +31,23 @@ export interface HistoryOptions extends CheckLogOptions {
  * the worker pool under the usual limits. `current` holds the records' results now (the working tree).
  */
 export async function recordHistories(current: RecordResult[], options: HistoryOptions): Promise<Map<string, BlockHistory[]>> {
-  const root = options.root ?? process.cwd();
-  const versions: Array<{ file: string; commit: FileCommit; source: RecordSource }> = [];
-  for (const record of current) {
-    const absolute = resolve(root, record.file);
-    const commits = fileCommits(absolute, options.depth);
-    if (commits.length === 0) continue;
-    const top = repositoryTop(resolve(absolute, '..'));
-    for (const commit of commits) {
-      const text = textAt(top, commit.hash, relative(top, absolute));
-      if (text !== null) versions.push({ file: record.file, commit, source: { name: record.file, text } });
-    }
-  }
   const histories = new Map<string, BlockHistory[]>();
+  const root = options.root ?? process.cwd();
+  if (current.length === 0 || options.depth <= 0) return histories;
+  let top: string;
+  try {
+    top = repositoryTop(root);
+  } catch {
+    return histories; // Not in git: no history to show.
+  }
+  const inRepo = current.map((record) => relative(top, resolve(root, record.file)).split('\\').join('/'));
+  const commits = commitsOfFiles(top, inRepo, options.depth);
+  const wanted = current.flatMap((record, i) => (commits.get(inRepo[i]) ?? []).map((commit) => ({ record, commit, path: inRepo[i] })));
+  const texts = textsAt(
+    top,
+    wanted.map((w) => ({ commit: w.commit.hash, path: w.path })),
+  );
+  const versions = wanted.flatMap((w, i) => (texts[i] === null ? [] : [{ file: w.record.file, commit: w.commit, source: { name: w.record.file, text: texts[i]! } satisfies RecordSource }]));
   if (versions.length === 0) return histories;
   const { log } = await checkLog(
     versions.map((v) => v.source),

@@ -26,7 +26,7 @@ export function systemPlot(system: LogSystem): string {
     Plot.text(estimates, { x: 'date', y: 'energy', text: 'block', dy: -12, fill: INK }),
   );
   return `<div class="gw-plots">${draw(
-    { x: { label: 'record date', type: 'utc', nice: true }, y: { label: 'energy (hartree)', grid: true, nice: true }, marks },
+    { x: { label: 'record date', type: 'utc', nice: true, insetLeft: 36, insetRight: 48 }, y: { label: 'energy (hartree)', grid: true, nice: true }, marks },
     `Estimates of the ${bracket.level} level against their records' dates. Filled dots: each block's energy (an upper bound); open triangles: its lower bound; dashed: the lowest upper bound; dotted: the highest lower bound.`,
   )}</div>`;
 }
