@@ -1,6 +1,10 @@
-import { relative, resolve } from 'node:path';
+import { createHash } from 'node:crypto';
+import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { join, relative, resolve } from 'node:path';
 import { checkLog, type CheckLogOptions, type RecordSource } from './check-log.ts';
 import { commitsOfFiles, repositoryTop, textsAt, type FileCommit } from './git-revisions.ts';
+import { loadLogConfig } from './log-config.ts';
+import { openResultCache } from './result-cache.ts';
 import type { BlockResult, RecordResult } from './result-types.ts';
 
 /** A block's result at one version of its record. */
@@ -42,7 +46,20 @@ export async function recordHistories(current: RecordResult[], options: HistoryO
   }
   const inRepo = current.map((record) => relative(top, resolve(root, record.file)).split('\\').join('/'));
   const commits = commitsOfFiles(top, inRepo, options.depth);
-  const wanted = current.flatMap((record, i) => (commits.get(inRepo[i]) ?? []).map((commit) => ({ record, commit, path: inRepo[i] })));
+  // A history is stored under its record, its commits and the record's blocks now, beside the results of the
+  // evaluator that made it: a cached build reads it back instead of checking every old version again.
+  const store = openResultCache((options.config ?? loadLogConfig(root)).cacheFolder).folder;
+  const keyOf = (record: RecordResult, i: number) =>
+    join(store, `history-${createHash('sha256').update(JSON.stringify([record.file, (commits.get(inRepo[i]) ?? []).map((c) => c.hash), record.blocks.map((b) => [b.id, b.line, b.inputHash, b.status])])).digest('hex')}.json`);
+  const todo: number[] = [];
+  current.forEach((record, i) => {
+    try {
+      histories.set(record.file, JSON.parse(readFileSync(keyOf(record, i), 'utf8')) as BlockHistory[]);
+    } catch {
+      todo.push(i);
+    }
+  });
+  const wanted = todo.flatMap((i) => (commits.get(inRepo[i]) ?? []).map((commit) => ({ record: current[i], commit, path: inRepo[i] })));
   const texts = textsAt(
     top,
     wanted.map((w) => ({ commit: w.commit.hash, path: w.path })),
@@ -53,13 +70,20 @@ export async function recordHistories(current: RecordResult[], options: HistoryO
     versions.map((v) => v.source),
     options,
   );
-  for (const record of current) {
+  for (const record of todo.map((i) => current[i])) {
     const past = versions.flatMap((v, i) => (v.file === record.file ? [{ commit: v.commit, blocks: log.records[i].blocks }] : [])).reverse();
     if (past.length === 0) continue;
     // The working tree is a version too when it differs from the newest commit.
     const newest = past[past.length - 1].blocks;
     const changed = newest.length !== record.blocks.length || newest.some((b, i) => b.inputHash !== record.blocks[i].inputHash || b.id !== record.blocks[i].id);
-    histories.set(record.file, threadVersions([...past, ...(changed ? [{ commit: null, blocks: record.blocks }] : [])], record.blocks));
+    const history = threadVersions([...past, ...(changed ? [{ commit: null, blocks: record.blocks }] : [])], record.blocks);
+    histories.set(record.file, history);
+    try {
+      mkdirSync(store, { recursive: true });
+      writeFileSync(keyOf(record, current.indexOf(record)), JSON.stringify(history));
+    } catch {
+      // An unwritable cache only means the history is worked out again next time.
+    }
   }
   return histories;
 }
