@@ -35,17 +35,17 @@ export interface BlockInputs {
 }
 
 /**
- * The block's Hamiltonian as the systems view compares it (src/log/systems.ts): always in atomic units, whatever
- * units the block is written in; potential and mass sampled at samplePoints(space, box), null where not finite.
+ * The block's Hamiltonian as the systems view compares it (src/log/systems.ts): potential and mass sampled at
+ * samplePoints(space, box), fixed points in bohr, null where not finite. Like every figure of a result, the walls
+ * and the potential are stated in the block's units (`quantity`); the mass in electron masses.
  */
 export interface Hamiltonian {
   space: string;
-  /** The walls in bohr, or null. */
+  /** The walls, or null. */
   box: [number, number] | null;
   angularMomentum: number;
   /** The name the block's `system:` field gives, or null. */
   system: string | null;
-  /** Hartree. */
   potential: Array<number | null>;
   /** Electron masses. */
   mass: Array<number | null>;

@@ -60,6 +60,14 @@ export interface LogSystem {
 
 type Located = { record: RecordResult; block: BlockResult; hamiltonian: Hamiltonian };
 
+/** A block's Hamiltonian in atomic units, whatever units its result states it in. */
+function atomic(block: BlockResult, h: Hamiltonian): Hamiltonian {
+  if (!block.quantity) return h;
+  const { perBohr } = block.quantity.length;
+  const { perHartree } = block.quantity.energy;
+  return { ...h, box: h.box && [h.box[0] / perBohr, h.box[1] / perBohr], potential: h.potential.map((v) => (v === null ? null : v / perHartree)) };
+}
+
 const close = (a: number | null, b: number | null) => (a === null || b === null ? a === b : Math.abs(a - b) <= SAMPLE_TOLERANCE * Math.max(Math.abs(a), Math.abs(b)) + 1e-12);
 const closeAll = (a: Array<number | null>, b: Array<number | null>) => a.length === b.length && a.every((value, i) => close(value, b[i]));
 
@@ -91,7 +99,7 @@ const slugOf = (text: string) => text.toLowerCase().replace(/[^a-z0-9]+/g, '-').
  * of two blocks or more, or named ones, are returned: a lone unnamed block is its own record's business.
  */
 export function findSystems(records: RecordResult[]): LogSystem[] {
-  const located: Located[] = records.flatMap((record) => record.blocks.flatMap((block) => (block.hamiltonian ? [{ record, block, hamiltonian: block.hamiltonian }] : [])));
+  const located: Located[] = records.flatMap((record) => record.blocks.flatMap((block) => (block.hamiltonian ? [{ record, block, hamiltonian: atomic(block, block.hamiltonian) }] : [])));
   const parent = located.map((_, i) => i);
   const find = (i: number): number => (parent[i] === i ? i : (parent[i] = find(parent[i])));
   const join = (i: number, j: number) => {
