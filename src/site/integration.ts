@@ -34,8 +34,9 @@ export default function groundwork(options: IntegrationOptions): AstroIntegratio
         const started = performance.now();
         const histories = await recordHistories(log.records, { root, config, parseRecord, depth: config.historyDepth });
         const changes = SINCE_REVISION ? await diffLog(SINCE_REVISION, [options.records], { root, config, parseRecord }) : null;
-        writeBuildReview(config.cacheFolder, { systems: findSystems(log.records), histories: Object.fromEntries(histories), changes });
-        logger.info(`review: systems, ${histories.size} record histories${changes ? `, ${changes.changes.length} blocks changed since ${SINCE_REVISION}` : ''} (${Math.round(performance.now() - started)} ms)`);
+        const systems = findSystems(log.records);
+        writeBuildReview(config.cacheFolder, { systems, histories: Object.fromEntries(histories), changes });
+        logger.info(`review: ${systems.length} systems, ${histories.size} record histories${changes ? `, ${changes.changes.length} block${changes.changes.length === 1 ? '' : 's'} changed since ${SINCE_REVISION}` : ''} (${Math.round(performance.now() - started)} ms)`);
       },
     },
   };
