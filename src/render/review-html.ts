@@ -94,7 +94,7 @@ export function renderSystem(system: LogSystem, links: ReviewLinks, plot: string
     `<div class="gw-brackets">${brackets.join('\n')}</div>`,
     conflicts.length > 0 ? `<ul class="gw-problems gw-conflicts">${conflicts.join('')}</ul>` : '',
     plot,
-    `<div class="gw-scroll"><table class="gw-index gw-members"><caption>Every block on this system (energies in hartree, whatever unit the block states them in)</caption><thead><tr><th>date</th><th>block</th><th>status</th><th>E</th><th>lower bound</th><th>level</th><th>trial or basis</th><th>record</th><th class="gw-wide-only">author</th></tr></thead><tbody>${rows.join('')}</tbody></table></div>`,
+    `<div class="gw-scroll"><table class="gw-table gw-members"><caption>Every block on this system (energies in hartree, whatever unit the block states them in)</caption><thead><tr><th>date</th><th>block</th><th>status</th><th>E</th><th>lower bound</th><th>level</th><th>trial or basis</th><th>record</th><th class="gw-wide-only">author</th></tr></thead><tbody>${rows.join('')}</tbody></table></div>`,
   ].join('\n');
 }
 
@@ -107,5 +107,5 @@ export function renderChanges(diff: LogDiff, links: ReviewLinks): string {
     `<tr${c.worse ? ' class="gw-worse"' : ''}><td>${escapeHtml(c.change)}</td><td>${c.after ? `<a href="${escapeHtml(links.record(c.file, c.id))}"><code>${escapeHtml(c.id)}</code></a>` : `<code>${escapeHtml(c.id)}</code>`}<br><span class="gw-note">${escapeHtml(c.file)}</span></td><td>${c.fields.map((f) => `<code>${escapeHtml(f)}</code>`).join(', ') || '—'}</td><td>${snap(c.before)}</td><td>${snap(c.after)}</td><td>${c.worse ? `<strong>worse:</strong> ${escapeHtml(c.worse)}` : ''}</td></tr>`;
   const worse = diff.changes.filter((c) => c.worse).length;
   return `<p>${diff.changes.length} block${diff.changes.length === 1 ? '' : 's'} changed since <code>${escapeHtml(diff.revision)}</code> (<code>${escapeHtml(diff.commit.slice(0, 12))}</code>), ${diff.unchanged} unchanged; ${worse === 0 ? 'none got worse' : `<strong>${worse} got worse</strong>`}.</p>
-<div class="gw-scroll"><table class="gw-index gw-changes"><thead><tr><th>change</th><th>block</th><th>fields</th><th>before</th><th>after</th><th></th></tr></thead><tbody>${diff.changes.map(row).join('')}</tbody></table></div>`;
+<div class="gw-scroll"><table class="gw-table gw-changes"><thead><tr><th>change</th><th>block</th><th>fields</th><th>before</th><th>after</th><th></th></tr></thead><tbody>${diff.changes.map(row).join('')}</tbody></table></div>`;
 }
