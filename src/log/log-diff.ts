@@ -1,5 +1,5 @@
-import { readFileSync } from 'node:fs';
-import { relative, resolve } from 'node:path';
+import { existsSync, readFileSync, statSync } from 'node:fs';
+import { dirname, relative, resolve } from 'node:path';
 import { parse } from 'yaml';
 import { STATUS_ORDER } from '../engine/status.ts';
 import { findSpecBlocks } from '../spec/find-blocks.ts';
@@ -48,9 +48,11 @@ const ENERGY_TOLERANCE = 1e-8;
  */
 export async function diffLog(revision: string, paths: string[], options: CheckLogOptions & { root: string }): Promise<LogDiff> {
   const { root } = options;
-  const top = repositoryTop(root);
-  const commit = resolveRevision(top, revision);
   const absolute = paths.map((p) => resolve(root, p));
+  // The repository that holds the records, which need not be the one the tool runs from.
+  const first = absolute[0] ?? root;
+  const top = repositoryTop(existsSync(first) && statSync(first).isDirectory() ? first : dirname(first));
+  const commit = resolveRevision(top, revision);
   const oldFiles = markdownFilesAt(top, commit, absolute);
   const texts = textsAt(top, oldFiles.map((path) => ({ commit, path })));
   const oldSources = oldFiles.flatMap((path, i) => (texts[i] === null ? [] : [{ name: relative(root, resolve(top, path)), text: texts[i]! }]));

@@ -1,6 +1,6 @@
 import { createHash } from 'node:crypto';
 import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
-import { join, relative, resolve } from 'node:path';
+import { dirname, join, relative, resolve } from 'node:path';
 import { checkLog, type CheckLogOptions, type RecordSource } from './check-log.ts';
 import { commitsOfFiles, repositoryTop, textsAt, type FileCommit } from './git-revisions.ts';
 import { loadLogConfig } from './log-config.ts';
@@ -38,19 +38,35 @@ export async function recordHistories(current: RecordResult[], options: HistoryO
   const histories = new Map<string, BlockHistory[]>();
   const root = options.root ?? process.cwd();
   if (current.length === 0 || options.depth <= 0) return histories;
-  let top: string;
-  try {
-    top = repositoryTop(root);
-  } catch {
-    return histories; // Not in git: no history to show.
+  // Each record is looked up in the repository that holds it (a log may keep its records outside the tool's own).
+  const tops = new Map<string, string | null>();
+  const topOf = (folder: string) => {
+    if (!tops.has(folder)) {
+      try {
+        tops.set(folder, repositoryTop(folder));
+      } catch {
+        tops.set(folder, null);
+      }
+    }
+    return tops.get(folder)!;
+  };
+  const located = current.map((record) => {
+    const absolute = resolve(root, record.file);
+    const top = topOf(dirname(absolute));
+    const path = top === null ? null : relative(top, absolute).split('\\').join('/');
+    return top === null || path === null || path.startsWith('../') ? null : { top, path };
+  });
+  const commits = new Map<string, FileCommit[]>();
+  for (const top of new Set(located.flatMap((l) => (l ? [l.top] : [])))) {
+    const paths = located.flatMap((l) => (l && l.top === top ? [l.path] : []));
+    for (const [path, list] of commitsOfFiles(top, paths, options.depth)) commits.set(`${top}\0${path}`, list);
   }
-  const inRepo = current.map((record) => relative(top, resolve(root, record.file)).split('\\').join('/'));
-  const commits = commitsOfFiles(top, inRepo, options.depth);
+  const commitsOf = (i: number) => (located[i] ? (commits.get(`${located[i]!.top}\0${located[i]!.path}`) ?? []) : []);
   // A history is stored under its record, its commits and the record's blocks now, beside the results of the
   // evaluator that made it: a cached build reads it back instead of checking every old version again.
   const store = openResultCache((options.config ?? loadLogConfig(root)).cacheFolder).folder;
   const keyOf = (record: RecordResult, i: number) =>
-    join(store, `history-${createHash('sha256').update(JSON.stringify([record.file, (commits.get(inRepo[i]) ?? []).map((c) => c.hash), record.blocks.map((b) => [b.id, b.line, b.inputHash, b.status])])).digest('hex')}.json`);
+    join(store, `history-${createHash('sha256').update(JSON.stringify([record.file, commitsOf(i).map((c) => c.hash), record.blocks.map((b) => [b.id, b.line, b.inputHash, b.status])])).digest('hex')}.json`);
   const todo: number[] = [];
   current.forEach((record, i) => {
     try {
@@ -59,11 +75,12 @@ export async function recordHistories(current: RecordResult[], options: HistoryO
       todo.push(i);
     }
   });
-  const wanted = todo.flatMap((i) => (commits.get(inRepo[i]) ?? []).map((commit) => ({ record: current[i], commit, path: inRepo[i] })));
-  const texts = textsAt(
-    top,
-    wanted.map((w) => ({ commit: w.commit.hash, path: w.path })),
-  );
+  const wanted = todo.flatMap((i) => commitsOf(i).map((commit) => ({ record: current[i], commit, top: located[i]!.top, path: located[i]!.path })));
+  const texts: Array<string | null> = new Array(wanted.length).fill(null);
+  for (const top of new Set(wanted.map((w) => w.top))) {
+    const indices = wanted.flatMap((w, i) => (w.top === top ? [i] : []));
+    textsAt(top, indices.map((i) => ({ commit: wanted[i].commit.hash, path: wanted[i].path }))).forEach((text, k) => (texts[indices[k]] = text));
+  }
   const versions = wanted.flatMap((w, i) => (texts[i] === null ? [] : [{ file: w.record.file, commit: w.commit, source: { name: w.record.file, text: texts[i]! } satisfies RecordSource }]));
   if (versions.length === 0) return histories;
   const { log } = await checkLog(

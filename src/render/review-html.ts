@@ -40,8 +40,10 @@ export function systemLinks(systems: LogSystem[], file: string, links: ReviewLin
   return found;
 }
 
+/** A system's name, or for an unnamed one its first block and how many more share its Hamiltonian. */
 export function systemTitle(system: LogSystem): string {
-  return system.name ?? `${system.members[0].title ?? system.members[0].file}: ${system.members[0].block}`;
+  const others = system.members.length - 1;
+  return system.name ?? `${system.members[0].block} and ${others} other block${others === 1 ? '' : 's'}`;
 }
 
 /** The history section of a record page: per block, its status and energy at each commit that changed the record. */
