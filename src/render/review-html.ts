@@ -90,13 +90,13 @@ export function renderSystem(system: LogSystem, links: ReviewLinks, plot: string
   const conflicts = system.conflicts.map((c) => `<li>${memberLink(c.upperMember)} has upper bound ${formatNumber(c.upper)} hartree, below the lower bound ${formatNumber(c.lower)} hartree of ${memberLink(c.lowerMember)}: at least one of the two results is wrong.</li>`);
   const rows = system.members.map(
     (m, i) =>
-      `<tr><td class="gw-date">${escapeHtml(m.date ?? '')}</td><td>${blockLink(i)}</td><td>${status(m.status)}</td><td class="gw-num">${formatNumber(m.energy)}</td><td class="gw-num">${formatNumber(m.lower)}</td><td>${escapeHtml(m.level)}</td><td>${methodOf(m)}</td><td>${escapeHtml(m.title ?? m.file)}</td><td class="gw-wide-only">${escapeHtml(m.author ?? '')}</td></tr>`,
+      `<tr><td class="gw-date">${escapeHtml(m.date ?? '')}</td><td>${blockLink(i)}</td><td>${status(m.status)}</td><td class="gw-num">${formatNumber(m.energy)}</td><td class="gw-num">${formatNumber(m.lower)}</td><td>${escapeHtml(m.level)}</td><td>${methodOf(m)}</td><td>${escapeHtml(m.title ?? m.file)}${m.author ? `<br><span class="gw-note">${escapeHtml(m.author)}</span>` : ''}</td></tr>`,
   );
   return [
     `<div class="gw-brackets">${brackets.join('\n')}</div>`,
     conflicts.length > 0 ? `<ul class="gw-problems gw-conflicts">${conflicts.join('')}</ul>` : '',
     plot,
-    `<div class="gw-scroll"><table class="gw-table gw-members"><caption>Every block on this system (energies in hartree, whatever unit the block states them in)</caption><thead><tr><th>date</th><th>block</th><th>status</th><th>E</th><th>lower bound</th><th>level</th><th>trial or basis</th><th>record</th><th class="gw-wide-only">author</th></tr></thead><tbody>${rows.join('')}</tbody></table></div>`,
+    `<div class="gw-scroll"><table class="gw-table gw-members"><caption>Every block on this system (energies in hartree, whatever unit the block states them in)</caption><thead><tr><th>date</th><th>block</th><th>status</th><th>E</th><th>lower bound</th><th>level</th><th>trial or basis</th><th>record and author</th></tr></thead><tbody>${rows.join('')}</tbody></table></div>`,
   ].join('\n');
 }
 
