@@ -1,4 +1,5 @@
-import { ATOMIC_DISPLAY, g } from './format.ts';
+import { eckartOverlapFloor } from './bounds.ts';
+import { ATOMIC_DISPLAY, g, type ValueDisplay } from './format.ts';
 import type { GridLevels } from './grid-levels.ts';
 import type { MinimizeResult } from './minimize.ts';
 import { describeLevel, GROUND_LEVEL, type TargetLevel } from './parity.ts';
@@ -140,4 +141,36 @@ export function claimChecks(problem: CheckedProblem, energy: number, best: numbe
 /** Which tolerance the published value was given and why, for the details of the checks that use it. */
 function toleranceNote(published: NonNullable<ProblemBase['reference']['published']>, show: typeof ATOMIC_DISPLAY): string {
   return published.toleranceBasis ? `; published value taken to +/- ${show.energy(published.tolerance, 3)}, ${published.toleranceBasis}` : '';
+}
+
+/**
+ * Temple's bound against the targeted grid level e0, and Eckart's overlap floor. Restricted to the states of one parity,
+ * Temple's bound holds for the level below the next one of that parity, and Eckart's for the lowest level of that parity
+ * with E1 the next; above the lowest level Eckart's criterion says nothing, so it is left out.
+ */
+export function boundChecks(energy: number, lower: number | null, overlap: number | null, e0: number, target: TargetLevel, nextLevel: number | null, tolerance: number, show: ValueDisplay): GradedCheck[] {
+  const checks: GradedCheck[] = [];
+  if (lower !== null) {
+    checks.push(
+      gradedCheck(
+        'temple-below-grid',
+        lower <= e0 + tolerance,
+        `Temple's lower bound ${show.energy(lower)} against ${gridLevelName(target)} ${show.energy(e0)} (with E1 = ${show.energy(nextLevel ?? NaN)})`,
+        'unsettled',
+      ),
+    );
+  }
+  const floor = target.index === 0 ? eckartOverlapFloor(energy, e0, nextLevel) : null;
+  if (overlap !== null && floor !== null) {
+    const state = target.symmetry === null ? 'ground state' : `state of the ${describeLevel(target)}`;
+    checks.push(
+      gradedCheck(
+        'eckart-overlap',
+        overlap >= floor - 1e-6,
+        `overlap with the grid ${state} ${g(overlap, 8)} (Eckart's floor ${g(floor, 8)})`,
+        'unsettled',
+      ),
+    );
+  }
+  return checks;
 }

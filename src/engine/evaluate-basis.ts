@@ -1,6 +1,5 @@
 import { findBreakpoints } from './breakpoints.ts';
 import { claimChecks, optimiserChecks, referenceChecks } from './checks.ts';
-import { domainOf } from './domain.ts';
 import { groundOverlap, invalidResult, type EngineResult } from './evaluate-problem.ts';
 import { ATOMIC_DISPLAY, g } from './format.ts';
 import { gridReference } from './grid-reference.ts';
@@ -9,6 +8,7 @@ import { hamiltonianSwitches, massPositiveCheck } from './mass-profile.ts';
 import type { MinimizeResult } from './minimize.ts';
 import { plotData } from './plot-data.ts';
 import type { BasisProblem } from './problem.ts';
+import { spaceOf } from './spaces/space-of.ts';
 import { gradedCheck, statusOf, type GradedCheck } from './status.ts';
 import { COMPARISON_FLOOR, ENERGY_RELATIVE_ERROR_LIMIT } from './tolerances.ts';
 import { probeTrial } from './trial-probe.ts';
@@ -22,7 +22,7 @@ import { virialReport } from './virial.ts';
  */
 export function evaluateBasisProblem(problem: BasisProblem): EngineResult {
   const started = performance.now();
-  const domain = domainOf(problem.space, problem.box);
+  const domain = spaceOf(problem);
   const start = problem.parameters.map((p) => p.start);
   const counts = { energyEvaluations: 0, trialEvaluations: 0 };
   const show = problem.display ?? ATOMIC_DISPLAY;
@@ -92,7 +92,7 @@ export function evaluateBasisProblem(problem: BasisProblem): EngineResult {
   const groundProbe = probeTrial(value, domain);
   counts.trialEvaluations += groundProbe.evaluations * functions.length;
 
-  const { grid, gridError, referenceMs } = gridReference(problem, breaks, { center: groundProbe.center, width: groundProbe.scale }, Math.max(2, problem.states));
+  const { grid, gridError, referenceMs } = gridReference(problem, domain, breaks, { center: groundProbe.center, width: groundProbe.scale }, Math.max(2, problem.states));
   const tolerance = (level: { energy: number; errorEstimate: number }) => 10 * level.errorEstimate + COMPARISON_FLOOR * Math.max(1, Math.abs(level.energy));
   checks.push(...referenceChecks(problem, energy, tolerance(ground), grid, gridError));
   if (grid && grid.converged) {

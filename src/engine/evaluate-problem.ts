@@ -1,17 +1,18 @@
-import { eckartOverlapFloor, templeBound, weinsteinInterval } from './bounds.ts';
+import { templeBound, weinsteinInterval } from './bounds.ts';
 import { findBreakpoints } from './breakpoints.ts';
-import { claimChecks, gridLevelName, optimiserChecks, referenceChecks } from './checks.ts';
+import { boundChecks, claimChecks, optimiserChecks, referenceChecks } from './checks.ts';
 import { COMPARISON_FLOOR, ENERGY_RELATIVE_ERROR_LIMIT, WALL_TOLERANCE } from './tolerances.ts';
-import { domainOf, type Domain } from './domain.ts';
 import { expectation, placedExpectation, searchExpectation, type Expectation } from './expectation.ts';
 import { ATOMIC_DISPLAY, g, type ValueDisplay } from './format.ts';
 import type { GridLevels } from './grid-levels.ts';
-import { describeLevel, resolveTarget, type TargetLevel, GROUND_LEVEL } from './parity.ts';
+import { GROUND_LEVEL, resolveTarget, type TargetLevel } from './parity.ts';
 import { gridReference } from './grid-reference.ts';
 import { hamiltonianSwitches, massPositiveCheck } from './mass-profile.ts';
 import { minimizeBounded, type MinimizeResult } from './minimize.ts';
 import { plotData, type PlotData } from './plot-data.ts';
 import type { VariationalProblem } from './problem.ts';
+import { spaceOf } from './spaces/space-of.ts';
+import type { CoordinateSpace } from './spaces/space.ts';
 import { findNonFiniteFactor, probeTrial } from './trial-probe.ts';
 import { gradedCheck, statusOf, type GradedCheck, type Status } from './status.ts';
 import { energyVariance, type VarianceResult } from './variance.ts';
@@ -67,7 +68,7 @@ export interface BasisDiagnostics {
  */
 export function evaluateProblem(problem: VariationalProblem): EngineResult {
   const started = performance.now();
-  const domain = domainOf(problem.space, problem.box);
+  const domain = spaceOf(problem);
   const start = problem.parameters.map((p) => p.start);
   const counts = { energyEvaluations: 0, trialEvaluations: 0 };
   const show = problem.display ?? ATOMIC_DISPLAY;
@@ -114,7 +115,7 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
 
   // A level above the ground level needs the grid to settle every level up to the next one of its parity.
   const levels = target.nextGridIndex > 1 ? target.nextGridIndex + 1 : undefined;
-  const { grid, gridError, referenceMs } = gridReference(problem, potentialBreaks, { center: optimum.probe.center, width: optimum.probe.scale }, levels);
+  const { grid, gridError, referenceMs } = gridReference(problem, domain, potentialBreaks, { center: optimum.probe.center, width: optimum.probe.scale }, levels);
   const tolerance = 10 * optimum.errorEstimate + COMPARISON_FLOOR * Math.max(1, Math.abs(energy));
   checks.push(...referenceChecks(problem, energy, tolerance, grid, gridError, target));
 
@@ -172,11 +173,11 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
 }
 
 /** The level the trial at `at` is compared with, and the checks of a declared symmetry. */
-function targetOf(problem: VariationalProblem, domain: Domain, at: Expectation, where: string): ReturnType<typeof resolveTarget> {
+function targetOf(problem: VariationalProblem, domain: CoordinateSpace, at: Expectation, where: string): ReturnType<typeof resolveTarget> {
   return resolveTarget(problem.level, problem.potential, problem.trial.value, domain, at.probe.peakAmplitude, where);
 }
 
-function evaluate(problem: VariationalProblem, domain: Domain, potentialBreaks: number[], p: ArrayLike<number>, counts: EngineResult['counts']): Expectation {
+function evaluate(problem: VariationalProblem, domain: CoordinateSpace, potentialBreaks: number[], p: ArrayLike<number>, counts: EngineResult['counts']): Expectation {
   return counted(expectation(problem, domain, potentialBreaks, p), counts);
 }
 
@@ -187,7 +188,7 @@ function counted<T extends { evaluations: number }>(result: T, counts: EngineRes
 }
 
 /** Square-integrable, finite energy integrals, and zero at every hard wall. */
-function trialChecks(problem: VariationalProblem, domain: Domain, at: Expectation, where: string, show: ValueDisplay): GradedCheck[] {
+function trialChecks(problem: VariationalProblem, domain: CoordinateSpace, at: Expectation, where: string, show: ValueDisplay): GradedCheck[] {
   // A NaN or an overflow met by the quadrature is traced to the input that produced it.
   const nonFinite = at.failure === 'non-finite' ? findNonFiniteFactor(problem.potential, problem.trial, domain, at.probe, show) : null;
   const checks = [
@@ -216,44 +217,12 @@ function trialChecks(problem: VariationalProblem, domain: Domain, at: Expectatio
   return checks;
 }
 
-/**
- * Temple's bound against the targeted grid level e0, and Eckart's overlap floor. Restricted to the states of one parity,
- * Temple's bound holds for the level below the next one of that parity, and Eckart's for the lowest level of that parity
- * with E1 the next; above the lowest level Eckart's criterion says nothing, so it is left out.
- */
-function boundChecks(energy: number, lower: number | null, overlap: number | null, e0: number, target: TargetLevel, nextLevel: number | null, tolerance: number, show: ValueDisplay): GradedCheck[] {
-  const checks: GradedCheck[] = [];
-  if (lower !== null) {
-    checks.push(
-      gradedCheck(
-        'temple-below-grid',
-        lower <= e0 + tolerance,
-        `Temple's lower bound ${show.energy(lower)} against ${gridLevelName(target)} ${show.energy(e0)} (with E1 = ${show.energy(nextLevel ?? NaN)})`,
-        'unsettled',
-      ),
-    );
-  }
-  const floor = target.index === 0 ? eckartOverlapFloor(energy, e0, nextLevel) : null;
-  if (overlap !== null && floor !== null) {
-    const state = target.symmetry === null ? 'ground state' : `state of the ${describeLevel(target)}`;
-    checks.push(
-      gradedCheck(
-        'eckart-overlap',
-        overlap >= floor - 1e-6,
-        `overlap with the grid ${state} ${g(overlap, 8)} (Eckart's floor ${g(floor, 8)})`,
-        'unsettled',
-      ),
-    );
-  }
-  return checks;
-}
-
-/** |<psi|psi_n>|^2 with the grid's lumped quadrature (radial: on chi = r R), against the grid ground state unless another is given. */
-export function groundOverlap(value: (x: number) => number, domain: Domain, grid: GridLevels, norm: number, state: Float64Array = grid.ground): number {
+/** |<psi|psi_n>|^2 with the grid's lumped quadrature (on the grid's own function, radial: chi = r R), against the grid ground state unless another is given. */
+export function groundOverlap(value: (x: number) => number, domain: CoordinateSpace, grid: GridLevels, norm: number, state: Float64Array = grid.ground): number {
   let sum = 0;
   for (let i = 0; i < grid.nodes.length; i++) {
     const x = grid.nodes[i];
-    const trial = value(x) * (domain.radial ? x : 1);
+    const trial = value(x) * domain.gridFactor(x);
     sum += grid.weights[i] * trial * state[i];
   }
   return (sum * sum) / norm;

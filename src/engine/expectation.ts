@@ -1,9 +1,9 @@
 import { findBreakpoints } from './breakpoints.ts';
-import { splitPoints, type Domain } from './domain.ts';
 import { ATOMIC_DISPLAY, g, type ValueDisplay } from './format.ts';
-import type { MassProfile, VariationalProblem } from './problem.ts';
+import type { VariationalProblem } from './problem.ts';
 import { integrateVector, type IntegrationResult, type Partition } from './quadrature.ts';
-import { negligibleAt, probeTrial, type TrialProbe } from './trial-probe.ts';
+import { splitPoints, type CoordinateSpace } from './spaces/space.ts';
+import { probeTrial, type TrialProbe } from './trial-probe.ts';
 
 /** <H> of the trial at one parameter point, with the pieces it is made of and their error. */
 export interface Expectation {
@@ -27,12 +27,12 @@ export interface Expectation {
 export const EXPECTATION_DEFAULTS = { relTol: 1e-12, maxIntervals: 2000 };
 
 /**
- * N = <psi|psi>, <T> = (hbar^2/2m) <psi'|psi'> (radial: plus l(l+1)/(2 m r^2) and weight r^2; a mass m(x) that
- * depends on the coordinate goes inside the integral, BenDaniel & Duke, Phys. Rev. 152, 683 (1966)) and <V>,
- * in one vector quadrature; the |psi'|^2 form needs no second derivative and is exact for
+ * N = <psi|psi>, <T> = (hbar^2/2m) <psi'|psi'> (plus the space's angular part, with its volume element; a mass m(x)
+ * that depends on the coordinate goes inside the integral, BenDaniel & Duke, Phys. Rev. 152, 683 (1966)) and <V>,
+ * in one vector quadrature over the space; the |psi'|^2 form needs no second derivative and is exact for
  * trials that vanish at the walls.
  */
-export function expectation(problem: VariationalProblem, domain: Domain, potentialBreaks: number[], parameters: ArrayLike<number>): Expectation {
+export function expectation(problem: VariationalProblem, domain: CoordinateSpace, potentialBreaks: number[], parameters: ArrayLike<number>): Expectation {
   problem.trial.setParameters(parameters);
   const probe = probeTrial(problem.trial.value, domain);
   const result = placedExpectation(problem, domain, potentialBreaks, probe);
@@ -40,34 +40,13 @@ export function expectation(problem: VariationalProblem, domain: Domain, potenti
 }
 
 /** The expectation at the parameters already set, with the quadrature placed by `probe` (whose evaluations are not counted here) and started from `start`. */
-export function placedExpectation(problem: VariationalProblem, domain: Domain, potentialBreaks: number[], probe: TrialProbe, start?: Partition): Expectation {
+export function placedExpectation(problem: VariationalProblem, domain: CoordinateSpace, potentialBreaks: number[], probe: TrialProbe, start?: Partition): Expectation {
   const { trial, potential, mass } = problem;
   const trialBreaks = findBreakpoints(trial.switches, domain.lo, domain.hi, probe.center, probe.scale);
   const centre = Number.isFinite(domain.lo) ? [] : [probe.center];
   const splits = splitPoints(domain, [...potentialBreaks, ...trialBreaks.points, ...centre]);
-  const l2 = problem.angularMomentum * (problem.angularMomentum + 1);
-  const profile = problem.massProfile;
-  const integrand = profile
-    ? massProfileIntegrand(problem, profile, domain.radial, l2, probe)
-    : domain.radial
-    ? (r: number, out: Float64Array) => {
-        const R = trial.value(r);
-        if (negligibleAt(probe, true, r, R)) return out.fill(0);
-        const dR = trial.d1(r);
-        const w = r * r;
-        out[0] = w * R * R;
-        out[1] = w * dR * dR + l2 * R * R;
-        out[2] = R === 0 ? 0 : w * potential(r) * R * R;
-      }
-    : (x: number, out: Float64Array) => {
-        const psi = trial.value(x);
-        if (negligibleAt(probe, false, x, psi)) return out.fill(0);
-        const dpsi = trial.d1(x);
-        out[0] = psi * psi;
-        out[1] = dpsi * dpsi;
-        // Far out a trial underflows to 0 where V may overflow (a Morse wall): the product is 0, not NaN.
-        out[2] = psi === 0 ? 0 : potential(x) * psi * psi;
-      };
+  const profile = problem.massProfile ?? null;
+  const integrand = domain.energyIntegrand(trial, potential, profile, probe);
   const result = integrateVector(integrand, 3, { breakpoints: splits, scale: probe.scale, start, ...EXPECTATION_DEFAULTS });
   const evaluations = trialBreaks.evaluations + result.evaluations;
   const [n, tk, v] = result.values;
@@ -95,20 +74,6 @@ export function placedExpectation(problem: VariationalProblem, domain: Domain, p
   };
 }
 
-/** The integrands of placedExpectation with the BenDaniel–Duke kinetic density |psi'|^2 / m(x) (radial: (r^2 |R'|^2 + l(l+1) |R|^2) / m(r)). */
-function massProfileIntegrand(problem: VariationalProblem, profile: MassProfile, radial: boolean, l2: number, probe: TrialProbe): (x: number, out: Float64Array) => void {
-  const { trial, potential } = problem;
-  return (x, out) => {
-    const psi = trial.value(x);
-    if (negligibleAt(probe, radial, x, psi)) return out.fill(0);
-    const dpsi = trial.d1(x);
-    const w = radial ? x * x : 1;
-    out[0] = w * psi * psi;
-    out[1] = (w * dpsi * dpsi + l2 * psi * psi) / profile.value(x);
-    out[2] = psi === 0 ? 0 : w * potential(x) * psi * psi;
-  };
-}
-
 /** What a search needs of one point: the energy (+Infinity where the trial is unusable) and the work it took. */
 export interface SearchPoint {
   energy: number;
@@ -129,7 +94,7 @@ const CARRY_LIMIT = 4;
  * the trial has moved or changed width too much for it, and the next point is probed and integrated
  * afresh. Every value meets the same tolerance by the same error estimate as a fresh evaluation.
  */
-export function searchExpectation(problem: VariationalProblem, domain: Domain, potentialBreaks: number[], atStart: Expectation): (parameters: ArrayLike<number>) => SearchPoint {
+export function searchExpectation(problem: VariationalProblem, domain: CoordinateSpace, potentialBreaks: number[], atStart: Expectation): (parameters: ArrayLike<number>) => SearchPoint {
   let placement = atStart.probe;
   let placedPanels = panelCount(atStart.partition);
   let partition: Partition | undefined = atStart.partition;

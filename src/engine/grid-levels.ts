@@ -2,11 +2,11 @@
  * Independent grid reference for the variational estimates: the lowest bound levels (two unless asked for more) and
  * their vectors of H = p^2/(2m) + V (hbar = 1) by the finite-element discrete variable representation.
  */
-import { lowestEigenpairs, type SymmetricBand } from './banded-eigen.ts';
+import { lowestEigenpairs } from './banded-eigen.ts';
+import { buildGrid, type Assembly, type Grid, type Outcome } from './fe-dvr.ts';
 import { ATOMIC_DISPLAY, type ValueDisplay } from './format.ts';
-import { gllRule, type GllRule } from './gll.ts';
 
-export type GridSpace = 'line' | 'half-line' | 'radial' | 'box';
+export type GridSpace = 'line' | 'half-line' | 'radial' | 'box' | 'plane';
 
 /** A mass that depends on the coordinate, with its slope (zero on either side of a step). */
 export interface GridMassProfile {
@@ -35,9 +35,9 @@ export interface GridProblem {
    */
   levels?: number;
   relTol?: number;
-  maxNodes?: number;
   /** How messages state energies and positions (default: atomic units). */
   display?: ValueDisplay;
+  maxNodes?: number;
 }
 
 export interface GridLevels {
@@ -59,6 +59,8 @@ export interface GridLevels {
   eigenIterations: number;
   potentialEvaluations: number;
   message: string | null;
+  /** A product grid (several coordinates) summarised here: each axis's domain and elements; absent on one coordinate. */
+  axes?: Array<{ name: string; domain: [number, number]; elements: number; order: number }>;
 }
 
 /** WKB decay exponent at which a tail is cut: amplitude e^-20, so the energy error is of order e^-40. */
@@ -100,17 +102,11 @@ interface StateEstimate {
   width: number;
 }
 
-interface Context {
+interface Context extends Assembly {
   space: GridSpace;
   /** Hard walls of a box problem; null for the open spaces. */
   box: [number, number] | null;
-  /** The mass at x (constant unless the problem has a mass profile): WKB wavenumbers and kinetic scales. */
-  massAt: (x: number) => number;
-  /** The position-dependent mass, or null for the constant-mass kinetic matrix. */
-  profile: GridMassProfile | null;
-  veff: (x: number) => number;
   threshold: number;
-  breakpoints: number[];
   /** Bound levels wanted; each grid solves for this many eigenpairs. */
   wanted: number;
   /** Whether the caller named `levels`, so that a shortfall is worth a message. */
@@ -118,17 +114,6 @@ interface Context {
   relTol: number;
   maxNodes: number;
   counters: { grids: number; eigenIterations: number; evaluations: number };
-  show: ValueDisplay;
-}
-
-interface Grid {
-  nodes: Float64Array;
-  weights: Float64Array;
-  band: SymmetricBand;
-  /** V at the nodes (the diagonal potential), kept for the kinetic-energy scale. */
-  potential: Float64Array;
-  elements: number;
-  order: number;
 }
 
 interface Solution {
@@ -145,30 +130,8 @@ interface Solution {
   eigenMessage: string | null;
 }
 
-type Outcome<T> = { ok: true; value: T } | { ok: false; message: string; tooLarge?: boolean };
-
-const stiffnessCache = new Map<number, { rule: GllRule; stiffness: Float64Array }>();
-
-/** Reference stiffness K_ij = sum_k w_k l_i'(x_k) l_j'(x_k) = int l_i' l_j' on [-1, 1], exact because the integrand has degree 2n - 4. */
-function referenceElement(order: number): { rule: GllRule; stiffness: Float64Array } {
-  const cached = stiffnessCache.get(order);
-  if (cached) return cached;
-  const rule = gllRule(order);
-  const { weights, derivative } = rule;
-  const stiffness = new Float64Array(order * order);
-  for (let i = 0; i < order; i++) {
-    for (let j = 0; j < order; j++) {
-      let s = 0;
-      for (let k = 0; k < order; k++) s += weights[k] * derivative[k * order + i] * derivative[k * order + j];
-      stiffness[i * order + j] = s;
-    }
-  }
-  const entry = { rule, stiffness };
-  stiffnessCache.set(order, entry);
-  return entry;
-}
-
 function countingPotential(problem: GridProblem, counters: Context['counters']): (x: number) => number {
+  // The plane's grid solves for f = R / r^|m| in its weighted form, which has no centrifugal term.
   const l = problem.space === 'radial' ? (problem.angularMomentum ?? 0) : 0;
   const profile = problem.massProfile;
   if (profile) {
@@ -276,113 +239,6 @@ function elementBoundaries(domain: [number, number], breakpoints: number[], dens
     boundaries.push(b);
   }
   return boundaries;
-}
-
-/**
- * FE-DVR Hamiltonian with Gauss–Lobatto elements and bridge functions (Rescigno & McCurdy, Phys. Rev. A 62, 032706
- * (2000)): lumped overlap, kinetic (1/2m) int chi_i' chi_j' by GLL quadrature, diagonal potential; the two outermost
- * nodes are dropped, which imposes psi = 0 there.
- */
-function buildGrid(ctx: Context, boundaries: number[], order: number): Outcome<Grid> {
-  const { rule, stiffness } = referenceElement(order);
-  const elements = boundaries.length - 1;
-  const step = order - 1;
-  const total = elements * step + 1;
-  const size = total - 2;
-  const xs = new Float64Array(total);
-  const ws = new Float64Array(total);
-  for (let e = 0; e < elements; e++) {
-    const half = 0.5 * (boundaries[e + 1] - boundaries[e]);
-    const mid = 0.5 * (boundaries[e + 1] + boundaries[e]);
-    for (let i = 0; i < order; i++) {
-      xs[e * step + i] = mid + half * rule.nodes[i];
-      ws[e * step + i] += half * rule.weights[i];
-    }
-  }
-  const nodes = xs.slice(1, total - 1);
-  const weights = ws.slice(1, total - 1);
-  const bandwidth = step;
-  const width = bandwidth + 1;
-  const upper = new Float64Array(size * width);
-  const kineticFactor = ctx.profile ? 0.5 : 1 / (2 * ctx.massAt(0));
-  for (let e = 0; e < elements; e++) {
-    const scale = kineticFactor / (0.5 * (boundaries[e + 1] - boundaries[e]));
-    const element = ctx.profile ? elementStiffness(ctx.profile.value, rule, boundaries[e], boundaries[e + 1]) : stiffness;
-    if (!element) return { ok: false, message: `the mass is not a positive finite number in the element [${boundaries[e]}, ${boundaries[e + 1]}]` };
-    for (let i = 0; i < order; i++) {
-      const row = e * step + i - 1;
-      if (row < 0 || row >= size) continue;
-      for (let j = i; j < order; j++) {
-        const column = e * step + j - 1;
-        if (column >= size) continue;
-        upper[row * width + column - row] += scale * element[i * order + j];
-      }
-    }
-  }
-  const breaks = new Set(ctx.breakpoints);
-  const potential = new Float64Array(size);
-  for (let row = 0; row < size; row++) {
-    const e = (row + 1) / step;
-    const v = Number.isInteger(e) && breaks.has(boundaries[e]) ? breakpointPotential(ctx, boundaries, e) + radialMassStep(ctx, boundaries, e, weights[row]) : ctx.veff(nodes[row]);
-    if (!Number.isFinite(v)) return { ok: false, message: `the potential is not finite at x = ${ctx.show.length(nodes[row])} (V = ${ctx.show.energy(v)})` };
-    for (let k = 0; k < width && row + k < size; k++) upper[row * width + k] /= Math.sqrt(weights[row] * weights[row + k]);
-    upper[row * width] += v;
-    potential[row] = v;
-  }
-  return { ok: true, value: { nodes, weights, band: { size, bandwidth, upper }, potential, elements, order } };
-}
-
-/**
- * A node on a step of V belongs to two elements, and each element's quadrature sees the limit of V from its own
- * side: the lumped weights (proportional to the element lengths) average the two one-sided values.
- */
-function breakpointPotential(ctx: Context, boundaries: number[], index: number): number {
-  const x = boundaries[index];
-  const leftLength = x - boundaries[index - 1];
-  const rightLength = boundaries[index + 1] - x;
-  const offset = 4 * Number.EPSILON * Math.max(Math.abs(x), leftLength, rightLength);
-  return (leftLength * ctx.veff(x - offset) + rightLength * ctx.veff(x + offset)) / (leftLength + rightLength);
-}
-
-/**
- * The element's stiffness (int l_i' l_j' / m on the reference element) by its own GLL rule, with 1/m at the nodes;
- * the end nodes take the mass from inside the element, so a mass step on an edge is seen from each side. Null where
- * the mass is not positive and finite.
- */
-function elementStiffness(mass: (x: number) => number, rule: GllRule, left: number, right: number): Float64Array | null {
-  const order = rule.nodes.length;
-  const half = 0.5 * (right - left);
-  const mid = 0.5 * (right + left);
-  const offset = 4 * Number.EPSILON * Math.max(Math.abs(left), Math.abs(right), right - left);
-  const inverse = new Float64Array(order);
-  for (let k = 0; k < order; k++) {
-    const x = k === 0 ? left + offset : k === order - 1 ? right - offset : mid + half * rule.nodes[k];
-    const m = mass(x);
-    if (!(m > 0) || !Number.isFinite(m)) return null;
-    inverse[k] = 1 / m;
-  }
-  const { weights, derivative } = rule;
-  const stiffness = new Float64Array(order * order);
-  for (let i = 0; i < order; i++) {
-    for (let j = 0; j < order; j++) {
-      let s = 0;
-      for (let k = 0; k < order; k++) s += weights[k] * inverse[k] * derivative[k * order + i] * derivative[k * order + j];
-      stiffness[i * order + j] = s;
-    }
-  }
-  return stiffness;
-}
-
-/**
- * Radially, a step of the mass at an edge node r0 puts (1/2) [1/m] u(r0)^2 / r0 into <T> (the step part of
- * (1/2) int u^2 (1/m)' / r dr); the node's DVR function has u(r0)^2 = 1/W there. Zero on the line and for a constant mass.
- */
-function radialMassStep(ctx: Context, boundaries: number[], index: number, weight: number): number {
-  if (!ctx.profile || ctx.space !== 'radial') return 0;
-  const x = boundaries[index];
-  const offset = 4 * Number.EPSILON * Math.max(Math.abs(x), x - boundaries[index - 1], boundaries[index + 1] - x);
-  const jump = 1 / ctx.profile.value(x + offset) - 1 / ctx.profile.value(x - offset);
-  return jump / (2 * x * weight);
 }
 
 function solve(
@@ -659,17 +515,20 @@ function report(ctx: Context, refined: Refined): GridLevels {
 
 function validate(problem: GridProblem): string | null {
   if (!problem.massProfile && (!(problem.mass > 0) || !Number.isFinite(problem.mass))) return `mass must be positive and finite, got ${problem.mass}`;
+  if (problem.massProfile && problem.space === 'plane') return 'a mass that depends on the coordinate is not available on the plane grid';
   if (problem.space === 'box') {
     const box = problem.box;
     if (!box || !(box[1] > box[0]) || !box.every(Number.isFinite)) return 'a box problem needs box = [a, b] with a < b';
   }
   const hint = problem.hint;
   if (hint && !(hint.width > 0 && Number.isFinite(hint.center))) return 'hint needs a finite center and a positive width';
-  if (hint && (problem.space === 'half-line' || problem.space === 'radial') && hint.center < 0) {
+  if (hint && problem.space !== 'line' && problem.space !== 'box' && hint.center < 0) {
     return `hint.center must lie on the half-line, got ${hint.center}`;
   }
   const l = problem.angularMomentum ?? 0;
-  if (!Number.isInteger(l) || l < 0) return `angularMomentum must be a non-negative integer, got ${l}`;
+  if (problem.space === 'plane') {
+    if (!Number.isInteger(l) || Math.abs(l) > MAX_PLANE_M) return `angularMomentum m must be an integer with |m| <= ${MAX_PLANE_M} on the plane, got ${l}`;
+  } else if (!Number.isInteger(l) || l < 0) return `angularMomentum must be a non-negative integer, got ${l}`;
   const levels = problem.levels ?? GRID_DEFAULTS.levels;
   if (!Number.isInteger(levels) || levels < 1) return `levels must be a positive integer, got ${levels}`;
   return null;
@@ -679,10 +538,13 @@ function validate(problem: GridProblem): string | null {
  * Refinement stops when two successive grids agree on the bound levels to relTol; maxNodes caps the work; `levels`
  * is how many of the lowest bound levels are wanted.
  */
+/** The plane's weight r^(2|m|+1) must stay finite on every grid: beyond this |m| it could overflow far out. */
+const MAX_PLANE_M = 40;
+
 export const GRID_DEFAULTS = { relTol: 1e-10, maxNodes: 4000, levels: 2 };
 
 /**
- * Lowest bound levels of a 1-D (or radial) Schrödinger operator: a domain sized by WKB for the highest wanted level,
+ * Lowest bound levels of a 1-D (or radial, or plane) Schrödinger operator: a domain sized by WKB for the highest wanted level,
  * FE-DVR grids refined until every wanted level settles, and a confirming run on a longer domain.
  */
 export function gridLevels(problem: GridProblem): GridLevels {
@@ -702,6 +564,8 @@ export function gridLevels(problem: GridProblem): GridLevels {
     relTol: problem.relTol ?? GRID_DEFAULTS.relTol,
     maxNodes: problem.maxNodes ?? GRID_DEFAULTS.maxNodes,
     counters,
+    power: problem.space === 'plane' ? 2 * Math.abs(problem.angularMomentum ?? 0) + 1 : null,
+    radialMassSteps: problem.space === 'radial',
     show: problem.display ?? ATOMIC_DISPLAY,
   };
   const invalid = validate(problem);

@@ -1,5 +1,6 @@
-import { gridLevels, type GridLevels } from './grid-levels.ts';
+import type { GridLevels } from './grid-levels.ts';
 import type { ProblemBase } from './problem.ts';
+import type { CoordinateSpace } from './spaces/space.ts';
 
 export interface GridReference {
   grid: GridLevels | null;
@@ -8,23 +9,12 @@ export interface GridReference {
   referenceMs: number;
 }
 
-/** The independent grid solution of a block's Hamiltonian, unless the block turned it off (`reference.solve: false`). */
-export function gridReference(problem: ProblemBase, breakpoints: number[], hint: { center: number; width: number }, levels?: number): GridReference {
+/** The independent grid solution of a block's Hamiltonian on its space, unless the block turned it off (`reference.solve: false`). */
+export function gridReference(problem: ProblemBase, space: CoordinateSpace, breakpoints: number[], hint: { center: number; width: number }, levels?: number): GridReference {
   const started = performance.now();
   if (!problem.reference.solve) return { grid: null, gridError: null, referenceMs: 0 };
   try {
-    const grid = gridLevels({
-      space: problem.box ? 'box' : problem.space,
-      mass: problem.mass,
-      massProfile: problem.massProfile,
-      potential: problem.potential,
-      angularMomentum: problem.angularMomentum,
-      box: problem.box ?? undefined,
-      breakpoints,
-      hint,
-      levels,
-      display: problem.display,
-    });
+    const grid = space.gridLevels({ mass: problem.mass, massProfile: problem.massProfile ?? null, potential: problem.potential, breakpoints, hint, levels, display: problem.display });
     return { grid, gridError: null, referenceMs: performance.now() - started };
   } catch (error) {
     return { grid: null, gridError: error instanceof Error ? error.message : String(error), referenceMs: performance.now() - started };

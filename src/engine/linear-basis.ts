@@ -5,12 +5,13 @@
  */
 import { ATOMIC_DISPLAY, type ValueDisplay } from './format.ts';
 import { WALL_TOLERANCE } from './tolerances.ts';
-import { domainOf, splitPoints, type Domain } from './domain.ts';
 import { EXPECTATION_DEFAULTS } from './expectation.ts';
 import { GENERALIZED_DEFAULTS, solveGeneralized } from './generalized-eigen.ts';
 import { minimizeBounded, type MinimizeOptions, type MinimizeResult } from './minimize.ts';
 import type { BasisFunction, LinearBasis, ParameterSpec, ProblemBase } from './problem.ts';
 import { integrateVector, type IntegrationResult, type IntegrationStatus } from './quadrature.ts';
+import { spaceOf } from './spaces/space-of.ts';
+import { splitPoints, type CoordinateSpace, type Domain } from './spaces/space.ts';
 import { probeTrial } from './trial-probe.ts';
 
 export interface LinearBasisProblem extends Pick<ProblemBase, 'space' | 'box' | 'angularMomentum' | 'mass' | 'massProfile' | 'potential' | 'display'> {
@@ -122,7 +123,7 @@ function validate(problem: LinearBasisProblem): void {
   if (basis.functions.length === 0) throw new RangeError('solveLinearBasis: the basis is empty');
   if (!Number.isInteger(states) || states < 1) throw new RangeError(`solveLinearBasis: states must be a positive integer, got ${states}`);
   if (!problem.massProfile && (!(mass > 0) || !Number.isFinite(mass))) throw new RangeError(`solveLinearBasis: mass must be positive and finite, got ${mass}`);
-  if (!Number.isInteger(angularMomentum) || angularMomentum < 0) {
+  if (!Number.isInteger(angularMomentum) || (angularMomentum < 0 && problem.space !== 'plane')) {
     throw new RangeError(`solveLinearBasis: angularMomentum must be a non-negative integer, got ${angularMomentum}`);
   }
 }
@@ -148,7 +149,7 @@ export function solveLinearBasis(
     if (!basis.setParameters) throw new RangeError('solveLinearBasis: parameters were given but the basis has no setParameters');
     basis.setParameters(parameters);
   }
-  const domain = domainOf(problem.space, problem.box);
+  const domain = spaceOf(problem);
   const functions = basis.functions;
   const n = functions.length;
   const envelope = (x: number) => {
@@ -172,7 +173,7 @@ export function solveLinearBasis(
   if (wall) return failed('hard-wall', wall);
 
   const context: QuadratureContext = {
-    potential, inverseMass: problem.massProfile ? inverseOf(problem.massProfile.value) : null, radial: domain.radial, l2: domain.radial ? problem.angularMomentum * (problem.angularMomentum + 1) : 0,
+    potential, inverseMass: problem.massProfile ? inverseOf(problem.massProfile.value) : null, space: domain,
     splits, scale: probe.scale, relTol: settings.relTol, maxIntervals: settings.maxIntervals,
   };
   const integrals = integrateMatrixElements(functions, context);
@@ -301,8 +302,7 @@ interface QuadratureContext {
   potential: (x: number) => number;
   /** 1/m(x) for a position-dependent mass (BenDaniel–Duke kinetic density phi_i' phi_j' / m), null for a constant one. */
   inverseMass: ((x: number) => number) | null;
-  radial: boolean;
-  l2: number;
+  space: CoordinateSpace;
   splits: number[];
   scale: number;
   relTol: number;
@@ -310,21 +310,22 @@ interface QuadratureContext {
 }
 
 /**
- * One vector quadrature for every pair i <= j: components are S_ij, then <phi_i'|phi_j'> (radial: weight r^2 plus
- * l(l+1) phi_i phi_j), then <phi_i|V|phi_j>, each block in the order (0,0), (0,1), ..., (1,1), ...
+ * One vector quadrature for every pair i <= j: components are S_ij, then <phi_i'|phi_j'> (with the space's weight, plus
+ * its centrifugal part times phi_i phi_j), then <phi_i|V|phi_j>, each block in the order (0,0), (0,1), ..., (1,1), ...
  */
 function integrateMatrixElements(functions: BasisFunction[], context: QuadratureContext): IntegrationResult {
   const n = functions.length;
   const pairs = (n * (n + 1)) / 2;
   const values = new Float64Array(n);
   const slopes = new Float64Array(n);
-  const { potential, inverseMass, radial, l2 } = context;
+  const { potential, inverseMass, space } = context;
   const integrand = (x: number, out: Float64Array) => {
     for (let i = 0; i < n; i++) {
       values[i] = functions[i].value(x);
       slopes[i] = functions[i].d1(x);
     }
-    const w = radial ? x * x : 1;
+    const w = space.weight(x);
+    const centrifugal = space.centrifugal(x);
     const v = potential(x);
     const overMass = inverseMass ? inverseMass(x) : 1;
     let k = 0;
@@ -332,7 +333,7 @@ function integrateMatrixElements(functions: BasisFunction[], context: Quadrature
       for (let j = i; j < n; j++) {
         const product = values[i] * values[j];
         out[k] = w * product;
-        out[pairs + k] = inverseMass ? (w * slopes[i] * slopes[j] + l2 * product) * overMass : w * slopes[i] * slopes[j] + l2 * product;
+        out[pairs + k] = inverseMass ? (w * slopes[i] * slopes[j] + centrifugal * product) * overMass : w * slopes[i] * slopes[j] + centrifugal * product;
         // Far out the functions underflow to 0 where V may overflow (a Morse wall): the product is 0, not NaN.
         out[2 * pairs + k] = product === 0 ? 0 : w * v * product;
         k++;

@@ -1,5 +1,5 @@
 import { samplingMesh } from './breakpoints.ts';
-import type { Domain } from './domain.ts';
+import type { Domain } from './spaces/space.ts';
 import { g } from './format.ts';
 import type { ProblemBase } from './problem.ts';
 import { gradedCheck, type GradedCheck } from './status.ts';

@@ -1,4 +1,4 @@
-import type { Domain } from './domain.ts';
+import type { Domain } from './spaces/space.ts';
 import { g } from './format.ts';
 import { gradedCheck, type GradedCheck } from './status.ts';
 
@@ -48,7 +48,7 @@ const LINE_DISTANCES = Array.from({ length: 105 }, (_, k) => 2 ** ((k - 48) / 4)
 
 /** Distances from 0 at which x and -x are compared, or null when the domain is not symmetric about 0. */
 function mirrorDistances(domain: Domain): readonly number[] | null {
-  if (domain.radial || domain.lo !== -domain.hi) return null;
+  if (domain.lo !== -domain.hi) return null;
   if (!Number.isFinite(domain.hi)) return LINE_DISTANCES;
   return Array.from({ length: 63 }, (_, i) => (domain.hi * (i + 1)) / 64);
 }
@@ -56,7 +56,7 @@ function mirrorDistances(domain: Domain): readonly number[] | null {
 /** Why the problem is not symmetric under x -> -x, or null when it is (at every sample point). */
 export function mirrorAsymmetry(potential: (x: number) => number, domain: Domain): string | null {
   const distances = mirrorDistances(domain);
-  if (!distances) return domain.radial || domain.lo === 0 ? 'the space is not the line' : `the box [${g(domain.lo)}, ${g(domain.hi)}] is not symmetric about 0`;
+  if (!distances) return domain.lo === 0 ? 'the space is not the line' : `the box [${g(domain.lo)}, ${g(domain.hi)}] is not symmetric about 0`;
   for (const x of distances) {
     const [right, left] = [potential(x), potential(-x)];
     if (Object.is(right, left)) continue;

@@ -1,6 +1,6 @@
-import type { Domain } from './domain.ts';
 import type { GridLevels } from './grid-levels.ts';
 import type { ProblemBase, TrialFamily } from './problem.ts';
+import type { CoordinateSpace } from './spaces/space.ts';
 
 /** E along one varied parameter with the others held at the optimum; null where the trial is unusable. */
 export interface EnergyScan {
@@ -9,7 +9,7 @@ export interface EnergyScan {
   points: Array<{ value: number; energy: number | null }>;
 }
 
-/** Trial and grid densities (radial: r^2 |R|^2, the density in r) and the potential on a common window. */
+/** Trial and grid densities (weight |psi|^2, the density in the coordinate: radial r^2 |R|^2) and the potential on a common window. */
 export interface DensityProfile {
   coordinate: 'x' | 'r';
   samples: Array<{ x: number; trial: number; potential: number | null }>;
@@ -31,7 +31,7 @@ const SCAN_RISE = 0.1;
 export interface PlotInputs {
   /** The state whose density is drawn (a trial, or the lowest combination of a basis) and the parameters scanned. */
   problem: Pick<ProblemBase, 'parameters' | 'potential'> & { trial: Pick<TrialFamily, 'value' | 'setParameters'> };
-  domain: Domain;
+  domain: CoordinateSpace;
   optimum: number[];
   energyAt: (parameters: number[]) => number;
   kinetic: number;
@@ -86,7 +86,7 @@ function densityProfile(inputs: PlotInputs): DensityProfile {
     const x = lo + ((hi - lo) * k) / (DENSITY_SAMPLES - 1);
     const psi = problem.trial.value(x);
     const v = problem.potential(x);
-    return { x, trial: (psi * psi * (domain.radial ? x * x : 1)) / inputs.norm, potential: Number.isFinite(v) ? v : null };
+    return { x, trial: (psi * psi * domain.weight(x)) / inputs.norm, potential: Number.isFinite(v) ? v : null };
   });
   const grid: DensityProfile['grid'] = [];
   const state = inputs.grid?.states[inputs.gridLevel ?? 0];
@@ -95,5 +95,5 @@ function densityProfile(inputs: PlotInputs): DensityProfile {
     // Grid vectors are normalised with the lumped weights, so state[i]^2 is the density at node i (radial: of chi = r R).
     for (let i = 0; i < nodes.length; i++) if (nodes[i] >= lo && nodes[i] <= hi) grid.push({ x: nodes[i], density: state[i] * state[i] });
   }
-  return { coordinate: domain.radial ? 'r' : 'x', samples, grid };
+  return { coordinate: domain.coordinate, samples, grid };
 }

@@ -1,8 +1,9 @@
 import type { ValueDisplay } from './format.ts';
+import type { FieldSpace } from './spaces/field-space.ts';
 
 /** What the engine evaluates: plain numbers and compiled functions, no text, no units. */
 
-export type EngineSpace = 'line' | 'half-line' | 'radial';
+export type EngineSpace = 'line' | 'half-line' | 'radial' | 'plane';
 
 /** A trial family; parameters are set once per point of the search, then the functions are called many times. */
 export interface TrialFamily {
@@ -85,4 +86,36 @@ export interface BasisProblem extends ProblemBase {
   };
   /** How many of the lowest levels to report. */
   states: number;
+}
+
+/** A function of a point of a space with several coordinates (axial: [rho, z]; a product: the coordinates in order). */
+export type PointFunction = (point: Float64Array) => number;
+
+/** A kink or step of an expression along one coordinate: where `at` changes sign there, whatever the other coordinates. */
+export interface AxisSwitch {
+  axis: number;
+  at: (coordinate: number) => number;
+}
+
+/** A trial of several coordinates; parameters are set once per point of the search, as for TrialFamily. */
+export interface FieldTrial {
+  setParameters(values: ArrayLike<number>): void;
+  value: PointFunction;
+  /** d psi / d q_k, one per coordinate in point order. */
+  gradient: PointFunction[];
+  /**
+   * The Laplacian the space's H psi needs, without its angular term: axial d2_rho + d_rho/rho + d2_z (m^2/rho^2 is
+   * the space's), a product space sum_k d2_k psi / m_k (the masses folded in).
+   */
+  laplacian: PointFunction;
+  /** Kinks or steps of the trial along one coordinate, at the current parameters. */
+  switches: AxisSwitch[];
+}
+
+/** A trial problem on a space of several coordinates (axial, a Cartesian product). */
+export interface FieldProblem extends Pick<ProblemBase, 'parameters' | 'reference' | 'claim' | 'display'> {
+  space: FieldSpace;
+  potential: PointFunction;
+  potentialSwitches: AxisSwitch[];
+  trial: FieldTrial;
 }

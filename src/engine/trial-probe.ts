@@ -1,6 +1,6 @@
-import type { Domain } from './domain.ts';
 import { ATOMIC_DISPLAY, g, type ValueDisplay } from './format.ts';
 import type { TrialFamily } from './problem.ts';
+import type { CoordinateSpace, Domain } from './spaces/space.ts';
 
 /** Where a trial's density lives: its peak, a length scale, and whether it is finite everywhere probed. */
 export interface TrialProbe {
@@ -20,7 +20,7 @@ const PROBE_EXPONENTS = Array.from({ length: 105 }, (_, k) => (k - 48) / 4);
 /** The density has fallen to this fraction of its peak where the length scale is read off. */
 const SCALE_DROP = 1e-3;
 
-export function probeTrial(value: (x: number) => number, domain: Domain): TrialProbe {
+export function probeTrial(value: (x: number) => number, domain: CoordinateSpace): TrialProbe {
   const points = probePoints(domain);
   const density = densityBuffer(points.length);
   let nonFiniteAt: number | null = null;
@@ -29,12 +29,12 @@ export function probeTrial(value: (x: number) => number, domain: Domain): TrialP
   for (let i = 0; i < points.length; i++) {
     const x = points[i];
     const psi = value(x);
-    density[i] = psi * psi * (domain.radial ? x * x : 1);
+    density[i] = psi * psi * domain.weight(x);
     if (Number.isFinite(psi)) peakAmplitude = Math.max(peakAmplitude, Math.abs(psi));
     else if (nonFiniteAt === null) nonFiniteAt = x;
     if (density[i] > density[best]) best = i;
   }
-  const center = domain.radial || domain.lo === 0 ? domain.lo : points[best];
+  const center = domain.lo === 0 ? domain.lo : points[best];
   // The scale is the farthest distance from the centre where the density is still appreciable.
   let scale = 0;
   const appreciable = SCALE_DROP * density[best];
@@ -61,9 +61,9 @@ const NEGLIGIBLE_DENSITY = 1e-40;
  * the domain ends, in effect, where the trial has decayed. A node of the trial (density 0, slope not)
  * lies inside its bulk and is integrated as before.
  */
-export function negligibleAt(probe: TrialProbe, radial: boolean, x: number, psi: number): boolean {
+export function negligibleAt(probe: TrialProbe, weight: (x: number) => number, x: number, psi: number): boolean {
   if (!(Math.abs(x - probe.center) > probe.scale)) return false;
-  const density = psi * psi * (radial ? x * x : 1);
+  const density = psi * psi * weight(x);
   return density < NEGLIGIBLE_DENSITY * probe.peakDensity;
 }
 
@@ -86,12 +86,12 @@ export interface NonFiniteFactor {
   detail: string;
 }
 
-export function findNonFiniteFactor(potential: (x: number) => number, trial: TrialFamily, domain: Domain, probe: TrialProbe, show: ValueDisplay = ATOMIC_DISPLAY): NonFiniteFactor | null {
-  const coordinate = domain.radial ? 'r' : 'x';
+export function findNonFiniteFactor(potential: (x: number) => number, trial: TrialFamily, domain: CoordinateSpace, probe: TrialProbe, show: ValueDisplay = ATOMIC_DISPLAY): NonFiniteFactor | null {
+  const coordinate = domain.coordinate;
   // Where the trial has decayed the integrands are not formed, so nothing there is at fault.
   const samples = probePoints(domain)
     .map((x) => ({ x, psi: trial.value(x) }))
-    .filter((p) => !(Number.isFinite(p.psi) && negligibleAt(probe, domain.radial, p.x, p.psi)));
+    .filter((p) => !(Number.isFinite(p.psi) && negligibleAt(probe, domain.weight, p.x, p.psi)));
   let peak = { x: 0, psi: 0 };
   for (const p of samples) if (Math.abs(p.psi) > Math.abs(peak.psi) && Number.isFinite(p.psi)) peak = p;
   samples.sort((a, b) => Math.abs(a.x - peak.x) - Math.abs(b.x - peak.x));
@@ -120,7 +120,8 @@ const DISTANCES = PROBE_EXPONENTS.map((k) => 2 ** k);
 const HALF_LINE_POINTS: readonly number[] = DISTANCES;
 const LINE_POINTS: readonly number[] = [...DISTANCES.map((d) => -d).reverse(), 0, ...DISTANCES];
 
-function probePoints(domain: Domain): readonly number[] {
+/** The coordinates a trial is probed at: a geometric mesh about 0 on open ranges, an even one on a finite range. */
+export function probePoints(domain: Domain): readonly number[] {
   if (Number.isFinite(domain.lo) && Number.isFinite(domain.hi)) {
     const n = 256;
     return Array.from({ length: n - 1 }, (_, i) => domain.lo + ((domain.hi - domain.lo) * (i + 1)) / n);

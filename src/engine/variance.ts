@@ -1,9 +1,8 @@
-import type { Domain } from './domain.ts';
 import type { Expectation } from './expectation.ts';
 import { ATOMIC_DISPLAY, g } from './format.ts';
-import type { MassProfile, VariationalProblem } from './problem.ts';
+import type { VariationalProblem } from './problem.ts';
 import { integrateVector } from './quadrature.ts';
-import { negligibleAt, type TrialProbe } from './trial-probe.ts';
+import type { CoordinateSpace } from './spaces/space.ts';
 
 export interface VarianceResult {
   /** <H^2> - <H>^2, or null when it is infinite or could not be computed (see note). */
@@ -23,11 +22,11 @@ export const VARIANCE_FLOOR = 1e-14;
  * <H^2> - <H>^2 when the trial is nearly exact; H psi comes from the symbolic second derivative.
  * `at` is the expectation at the parameters currently set.
  */
-export function energyVariance(problem: VariationalProblem, domain: Domain, at: Expectation): VarianceResult {
+export function energyVariance(problem: VariationalProblem, domain: CoordinateSpace, at: Expectation): VarianceResult {
   const { splits, partition, norm, energy } = at;
   const { scale, peakAmplitude } = at.probe;
   const { trial, potential, mass } = problem;
-  const profile = problem.massProfile;
+  const profile = problem.massProfile ?? null;
   // A kink of the trial puts a delta function into H psi: the variance is then infinite. With a mass m(x) the
   // flux psi'/m is what must be continuous (BenDaniel & Duke, Phys. Rev. 152, 683 (1966)), also across a mass step.
   for (const x of splits) {
@@ -47,28 +46,7 @@ export function energyVariance(problem: VariationalProblem, domain: Domain, at: 
       return { value: null, errorEstimate: 0, note: `at ${(problem.display ?? ATOMIC_DISPLAY).length(x, 6)} ${where}, so H psi holds a delta function and the variance is infinite`, evaluations: 2 };
     }
   }
-  const l2 = problem.angularMomentum * (problem.angularMomentum + 1);
-  const integrand = profile
-    ? massProfileIntegrand(problem, profile, domain.radial, l2, energy, at.probe)
-    : domain.radial
-    ? (r: number, out: Float64Array) => {
-        const R = trial.value(r);
-        if (negligibleAt(at.probe, true, r, R)) {
-          out[0] = 0;
-          return;
-        }
-        const hR = -(trial.d2(r) + (2 * trial.d1(r)) / r) / (2 * mass) + (l2 / (2 * mass * r * r) + potential(r) - energy) * R;
-        out[0] = r * r * hR * hR;
-      }
-    : (x: number, out: Float64Array) => {
-        const psi = trial.value(x);
-        if (negligibleAt(at.probe, false, x, psi)) {
-          out[0] = 0;
-          return;
-        }
-        const hPsi = -trial.d2(x) / (2 * mass) + (potential(x) - energy) * psi;
-        out[0] = hPsi * hPsi;
-      };
+  const integrand = domain.varianceIntegrand(trial, potential, mass, energy, profile, at.probe);
   // A nearly exact trial has a variance at rounding level, which no relative tolerance can resolve.
   const absTol = VARIANCE_FLOOR * Math.max(energy * energy, 1e-300) * norm;
   // The energy integrals' panels, on the same split points and scale, are a good start for H psi too.
@@ -82,25 +60,4 @@ export function energyVariance(problem: VariationalProblem, domain: Domain, at: 
     };
   }
   return { value: result.values[0] / norm, errorEstimate: result.errorEstimates[0] / norm, note: null, evaluations: result.evaluations };
-}
-
-/**
- * |(H - E) psi|^2 (radial: times r^2) with the BenDaniel–Duke operator -(1/2) div(grad psi / m):
- * -(1/2) (psi''/m - m' psi'/m^2) on the line, -(1/2) ((R'' + 2R'/r)/m - m' R'/m^2) + l(l+1) R/(2 m r^2) radially.
- */
-function massProfileIntegrand(problem: VariationalProblem, profile: MassProfile, radial: boolean, l2: number, energy: number, probe: TrialProbe): (x: number, out: Float64Array) => void {
-  const { trial, potential } = problem;
-  return (x, out) => {
-    const psi = trial.value(x);
-    if (negligibleAt(probe, radial, x, psi)) {
-      out[0] = 0;
-      return;
-    }
-    const m = profile.value(x);
-    const d1 = trial.d1(x);
-    const laplacian = radial ? trial.d2(x) + (2 * d1) / x : trial.d2(x);
-    const centrifugal = radial ? l2 / (2 * m * x * x) : 0;
-    const hPsi = -(laplacian / m - (profile.d1(x) * d1) / (m * m)) / 2 + (centrifugal + potential(x) - energy) * psi;
-    out[0] = (radial ? x * x : 1) * hPsi * hPsi;
-  };
 }

@@ -1,21 +1,17 @@
 import type { MathNode } from 'mathjs';
-import type { BlockSpec } from '../spec/types.ts';
+import { coordinatesOf, type BlockSpec } from '../spec/types.ts';
 import { checkExpression, type NameScope } from './allow-list.ts';
+import { derivativeTooLarge, explainRefusal, sharedConstants, type ExpressionProblem } from './block-scope.ts';
 import { compileTree } from './compile.ts';
 import { dependsOn, differentiate } from './differentiate.ts';
 import { switchFunctions } from './switch-points.ts';
-import { treeShape } from './tree-shape.ts';
 
-export interface ExpressionProblem {
-  field: string;
-  line: number;
-  token: string | null;
-  message: string;
-}
+export type { ExpressionProblem } from './block-scope.ts';
+
 
 /** The trees a block's numbers come from, kept for typesetting. */
 export interface BlockTrees {
-  coordinate: 'x' | 'r';
+  coordinate: string;
   potential: MathNode;
   /** The mass when it depends on the coordinate; null for a constant mass. */
   mass: MathNode | null;
@@ -47,23 +43,15 @@ export interface CompiledBlock {
 
 export type CompileResult = { ok: true; block: CompiledBlock } | { ok: false; problems: ExpressionProblem[] };
 
-/** hbar in atomic units. */
-const HBAR = 1;
-/**
- * Terms a derivative of the trial may have when written out: some twenty times what honest trials
- * need (a 30-term polynomial times a Gaussian has about 1000), small enough that a product or tower
- * of a few dozen factors, whose derivatives grow like a power of its length, is refused at once.
- */
-export const MAX_DERIVATIVE_SIZE = 20_000;
 
 /**
  * Checks a block's expressions against its declarations and compiles the potential, the trial
  * and the trial's first two coordinate derivatives into closures sharing one slot array.
  */
 export function compileBlock(spec: BlockSpec): CompileResult {
-  const coordinate = spec.space === 'radial' ? 'r' : 'x';
+  const coordinate = coordinatesOf(spec.space)[0];
   const varied = spec.varied.map((p) => p.name);
-  const shared: Record<string, number> = { pi: Math.PI, e: Math.E, ...spec.constants, ...spec.fixed, hbar: HBAR };
+  const shared = sharedConstants(spec);
   const problems: ExpressionProblem[] = [];
   const mass = readMass(spec, coordinate, shared);
   if (!mass.ok) return { ok: false, problems: [mass.problem] };
@@ -75,7 +63,7 @@ export function compileBlock(spec: BlockSpec): CompileResult {
   const check = (field: string, text: string, line: number, variables: string[]): MathNode | null => {
     const result = checkExpression(text, { variables, constants } satisfies NameScope);
     if (result.ok) return result.tree;
-    problems.push({ field, line, token: result.token, message: explain(result.token, result.message, spec, coordinate, field) });
+    problems.push({ field, line, token: result.token, message: explainRefusal(result.token, result.message, spec, field) });
     return null;
   };
   const potentialTree = check('potential', spec.potential.text, spec.potential.line, [coordinate]);
@@ -112,7 +100,7 @@ export function compileBlock(spec: BlockSpec): CompileResult {
   const d1Trees: MathNode[] = [];
   for (let i = 0; i < trees.length; i++) {
     const d1Tree = differentiate(trees[i], coordinate);
-    const d1Refusal = tooLarge(d1Tree, 'first', states[i]);
+    const d1Refusal = derivativeTooLarge(d1Tree, 'first', states[i]);
     if (d1Refusal) return { ok: false, problems: [d1Refusal] };
     d1Trees.push(d1Tree);
     functions.push({ value: at(compile(trees[i])), d1: at(compile(d1Tree)) });
@@ -124,7 +112,7 @@ export function compileBlock(spec: BlockSpec): CompileResult {
     return { ok: true, block: { ...block, trees: { coordinate, potential: potentialTree, mass: massTree, trial: null, basis: trees }, trial: null, basis: { functions, setParameters, switches } } };
   }
   const d2Tree = differentiate(d1Trees[0], coordinate);
-  const d2Refusal = tooLarge(d2Tree, 'second', states[0]);
+  const d2Refusal = derivativeTooLarge(d2Tree, 'second', states[0]);
   if (d2Refusal) return { ok: false, problems: [d2Refusal] };
   const trial = { ...functions[0], d2: at(compile(d2Tree)), setParameters, switches };
   return { ok: true, block: { ...block, trees: { coordinate, potential: potentialTree, mass: massTree, trial: trees[0], basis: null }, trial, basis: null } };
@@ -137,36 +125,15 @@ type MassReading = { ok: true; value: number; tree: MathNode | null } | { ok: fa
  * BenDaniel–Duke kinetic form; the spec layer lets text through only when it names the coordinate). It may use the
  * constants and fixed parameters, not the varied ones nor itself.
  */
-function readMass(spec: BlockSpec, coordinate: 'x' | 'r', constants: Record<string, number>): MassReading {
+function readMass(spec: BlockSpec, coordinate: string, constants: Record<string, number>): MassReading {
   if (typeof spec.mass === 'number') return { ok: true, value: spec.mass, tree: null };
   const { line } = spec.mass;
   const checked = checkExpression(spec.mass.text, { variables: [coordinate], constants });
   if (checked.ok) return { ok: true, value: Number.NaN, tree: checked.tree };
-  const message = explain(checked.token, checked.message, spec, coordinate, 'mass');
+  const message = explainRefusal(checked.token, checked.message, spec, 'mass');
   // Often a unit written in an atomic-unit block.
   const hint = spec.quantity === null && message.startsWith('unknown name') ? '; a mass with a unit, such as 0.067 electronMass, needs quantity mode (units: { length: nm, energy: meV })' : '';
   return { ok: false, problem: { field: 'mass', line, token: checked.token, message: message + hint } };
 }
 
-function tooLarge(tree: MathNode, order: 'first' | 'second', state: { field: string; line: number }): ExpressionProblem | null {
-  const { size } = treeShape(tree);
-  if (size <= MAX_DERIVATIVE_SIZE) return null;
-  return {
-    field: state.field,
-    line: state.line,
-    token: null,
-    message: `the ${state.field === 'trial' ? "trial's" : `${state.field} function's`} ${order} derivative has ${size} terms when written out (the limit is ${MAX_DERIVATIVE_SIZE}); write the trial with fewer nested products, powers or functions`,
-  };
-}
 
-function explain(token: string, message: string, spec: BlockSpec, coordinate: string, field: string): string {
-  if ((field === 'potential' || field === 'mass') && spec.varied.some((p) => p.name === token)) {
-    return `the ${field} may not depend on the varied parameter ${token}; hold it fixed (a plain value under parameters) or move it to constants`;
-  }
-  if (token === 'mass' && typeof spec.mass !== 'number') {
-    return field === 'mass' ? 'the mass may not refer to itself (mass)' : `the mass depends on the coordinate in this block, so the name mass has no single value; write the number it should stand for`;
-  }
-  const other = coordinate === 'r' ? 'x' : 'r';
-  if (token === other) return `unknown name ${other}: the coordinate of space ${spec.space} is ${coordinate}`;
-  return message;
-}

@@ -1,14 +1,19 @@
 import { performance } from 'node:perf_hooks';
 import { evaluateBasisProblem } from '../engine/evaluate-basis.ts';
 import { evaluateProblem, type EngineResult } from '../engine/evaluate-problem.ts';
-import type { ProblemBase } from '../engine/problem.ts';
+import type { FieldProblem, ProblemBase } from '../engine/problem.ts';
+import type { MathNode } from 'mathjs';
+import { evaluateFieldProblem } from '../engine/evaluate-field-problem.ts';
+import { axialSpace } from '../engine/spaces/axial.ts';
+import { cartesianSpace } from '../engine/spaces/cartesian.ts';
 import { compileBlock } from '../expr/compile-block.ts';
-import type { BlockEntry, BlockSpec, SpecProblem } from '../spec/types.ts';
+import { compileFieldBlock } from '../expr/compile-field-block.ts';
+import { coordinatesOf, isLineSpace, type BlockEntry, type BlockSpec, type LineSpace, type SpecProblem } from '../spec/types.ts';
 import { hamiltonianSamples } from './hamiltonian-samples.ts';
 import { inputHash } from './input-hash.ts';
 import { invalidBlock, unparsedBlock } from './invalid-block.ts';
 import { blockUnitsDisplay, inBlockUnits } from './units-back.ts';
-import type { BlockInputs, BlockResult } from './result-types.ts';
+import type { BlockInputs, BlockResult, Hamiltonian } from './result-types.ts';
 
 const ENERGY_UNIT = 'hartree';
 
@@ -20,19 +25,75 @@ export function evaluateBlock(file: string, entry: BlockEntry): BlockResult {
   }
   const { spec } = entry;
   const hash = inputHash(spec);
-  const compiled = compileBlock(spec);
-  if (!compiled.ok) {
-    const problems = compiled.problems.map((p) => ({ file, line: p.line, block: spec.id, field: p.field, message: p.message }));
+  const evaluated = isLineSpace(spec.space) ? evaluateLineBlock(spec) : evaluateFieldBlock(spec);
+  if (!evaluated.ok) {
+    const problems = evaluated.problems.map((p) => ({ file, line: p.line, block: spec.id, field: p.field, message: p.message }));
     return invalidBlock(spec.id, spec.line, spec.caption, problems, hash, started);
   }
-  const base: ProblemBase = {
+  const { engine, trees, mass } = evaluated;
+  const inputs: BlockInputs = {
     space: spec.space,
+    coordinates: coordinatesOf(spec.space),
+    box: spec.box,
+    angularMomentum: spec.angularMomentum,
+    mass: trees.mass ? null : mass,
+    massTex: trees.mass?.toTex() ?? null,
+    masses: spec.masses,
+    coordinate: coordinatesOf(spec.space)[0],
+    lengthUnit: 'bohr',
+    potentialTex: trees.potential.toTex(),
+    trialTex: trees.trial?.toTex() ?? null,
+    basisTex: trees.basis?.map((tree) => tree.toTex()) ?? null,
+    constants: spec.constants,
+    ranges: spec.varied.map(({ name, start, min, max }) => ({ name, start, min, max })),
+  };
+  const result = { ...toBlockResult(file, spec, inputs, engine, hash, started), hamiltonian: evaluated.hamiltonian };
+  return spec.quantity ? inBlockUnits(result, spec.quantity) : result;
+}
+
+type Evaluated =
+  | { ok: true; engine: EngineResult; trees: { potential: MathNode; mass: MathNode | null; trial: MathNode | null; basis: MathNode[] | null }; mass: number; hamiltonian: Hamiltonian | null }
+  | { ok: false; problems: Array<{ line: number; field: string | null; message: string }> };
+
+/** A block on a space of one coordinate: compiled to functions of x (or r), evaluated by the one-coordinate engine. */
+function evaluateLineBlock(spec: BlockSpec): Evaluated {
+  const compiled = compileBlock(spec);
+  if (!compiled.ok) return { ok: false, problems: compiled.problems };
+  const base: ProblemBase = {
+    space: spec.space as LineSpace,
     box: spec.box,
     angularMomentum: spec.angularMomentum,
     mass: compiled.block.mass,
     massProfile: compiled.block.massProfile,
     potential: compiled.block.potential,
     potentialSwitches: compiled.block.potentialSwitches,
+    ...shared(spec),
+  };
+  const { trial, basis } = compiled.block;
+  const hamiltonian = hamiltonianSamples(spec, spec.space as LineSpace, compiled.block);
+  return guarded(spec, () => (trial ? evaluateProblem({ ...base, trial }) : evaluateBasisProblem({ ...base, basis: basis!, states: spec.states })), compiled.block.trees, compiled.block.mass, hamiltonian);
+}
+
+/** A block on axial or a product space: compiled to functions of a point, evaluated by product cubature and grid. */
+function evaluateFieldBlock(spec: BlockSpec): Evaluated {
+  const compiled = compileFieldBlock(spec);
+  if (!compiled.ok) return { ok: false, problems: compiled.problems };
+  const { block } = compiled;
+  const written = spec.space;
+  // The spec refuses a mass that depends on the coordinates here, so it is one number (1 when given per coordinate).
+  const mass = spec.mass as number;
+  const space =
+    typeof written === 'object'
+      ? cartesianSpace(Object.entries(written).map(([name, range]) => ({ name, range, mass: spec.masses?.[name] ?? mass })))
+      : axialSpace(spec.angularMomentum, mass);
+  const problem: FieldProblem = { space, potential: block.potential, potentialSwitches: block.potentialSwitches, trial: block.trial, ...shared(spec) };
+  // Systems are found among blocks of one coordinate; sampling a field's Hamiltonian is left for later.
+  return guarded(spec, () => evaluateFieldProblem(problem), { potential: block.trees.potential, mass: null, trial: block.trees.trial, basis: null }, mass, null);
+}
+
+/** What every engine problem takes from the spec besides its space, potential and trial. */
+function shared(spec: BlockSpec): Pick<ProblemBase, 'parameters' | 'reference' | 'claim' | 'plots' | 'display' | 'level'> {
+  return {
     parameters: spec.varied,
     reference: {
       solve: spec.reference.solve,
@@ -49,32 +110,16 @@ export function evaluateBlock(file: string, entry: BlockEntry): BlockResult {
     display: spec.quantity ? blockUnitsDisplay(spec.quantity) : undefined,
     level: spec.level && { symmetry: spec.level.symmetry, index: spec.level.index },
   };
-  let engine: EngineResult;
+}
+
+/** The evaluation, with an exception (a bug, never bad input) turned into an invalid block. */
+function guarded(spec: BlockSpec, run: () => EngineResult, trees: Extract<Evaluated, { ok: true }>['trees'], mass: number, hamiltonian: Hamiltonian | null): Evaluated {
   try {
-    const { trial, basis } = compiled.block;
-    engine = trial ? evaluateProblem({ ...base, trial }) : evaluateBasisProblem({ ...base, basis: basis!, states: spec.states });
+    return { ok: true, engine: run(), trees, mass, hamiltonian };
   } catch (error) {
     const reason = error instanceof Error ? error.message : String(error);
-    const problems = [{ file, line: spec.line, block: spec.id, field: null, message: `the evaluation failed: ${reason}` }];
-    return invalidBlock(spec.id, spec.line, spec.caption, problems, hash, started);
+    return { ok: false, problems: [{ line: spec.line, field: null, message: `the evaluation failed: ${reason}` }] };
   }
-  const trees = compiled.block.trees;
-  const inputs: BlockInputs = {
-    space: spec.space,
-    box: spec.box,
-    angularMomentum: spec.angularMomentum,
-    mass: trees.mass ? null : compiled.block.mass,
-    massTex: trees.mass?.toTex() ?? null,
-    coordinate: trees.coordinate,
-    lengthUnit: 'bohr',
-    potentialTex: trees.potential.toTex(),
-    trialTex: trees.trial?.toTex() ?? null,
-    basisTex: trees.basis?.map((tree) => tree.toTex()) ?? null,
-    constants: spec.constants,
-    ranges: spec.varied.map(({ name, start, min, max }) => ({ name, start, min, max })),
-  };
-  const result = { ...toBlockResult(file, spec, inputs, engine, hash, started), hamiltonian: hamiltonianSamples(spec, compiled.block) };
-  return spec.quantity ? inBlockUnits(result, spec.quantity) : result;
 }
 
 function toBlockResult(file: string, spec: BlockSpec, inputs: BlockInputs, engine: EngineResult, hash: string, started: number): BlockResult {
@@ -157,6 +202,7 @@ function toBlockResult(file: string, spec: BlockSpec, inputs: BlockInputs, engin
             domain: engine.grid.domain,
             errorEstimate: engine.grid.errorEstimate,
             converged: engine.grid.converged,
+            ...(engine.grid.axes ? { axes: engine.grid.axes } : {}),
           }
         : null,
       energyEvaluations: engine.counts.energyEvaluations,

@@ -1,7 +1,7 @@
 import type { BasisDiagnostics } from '../engine/evaluate-problem.ts';
 import type { PlotData } from '../engine/plot-data.ts';
 import type { Check, Status } from '../engine/status.ts';
-import type { FrontMatter, QuantityMode, SpecProblem } from '../spec/types.ts';
+import type { FrontMatter, QuantityMode, Space, SpecProblem } from '../spec/types.ts';
 
 /** The machine-readable result of RECORD-FORMAT.md: what `groundwork check --json` prints and the pages render. */
 
@@ -12,14 +12,20 @@ export interface Valued {
 
 /** The inputs as the block stated them, typeset from the checked expression trees. */
 export interface BlockInputs {
-  space: string;
+  /** The space as written: a name, or the map of a product space's coordinates and their ranges. */
+  space: Space;
+  /** Its coordinates in point order (one for line, half-line, radial, plane). */
+  coordinates: string[];
   box: [number, number] | null;
   angularMomentum: number;
   /** The constant mass (electron masses), or null when it depends on the coordinate (see massTex). */
   mass: number | null;
   /** A position-dependent mass typeset, or null for a constant one. */
   massTex: string | null;
-  coordinate: 'x' | 'r';
+  /** The mass per coordinate of a product space that gives one; null otherwise. */
+  masses: Record<string, number> | null;
+  /** The first coordinate (the only one of a space of one coordinate). */
+  coordinate: string;
   /** The unit lengths are given in: bohr in atomic units, the block's own in quantity mode. */
   lengthUnit: string;
   potentialTex: string;

@@ -62,13 +62,15 @@ function renderInputs(result: BlockResult): string {
   const kinetic = inputs.massTex === null ? constantMassKinetic(inputs) : profileKinetic(inputs);
   // In quantity mode the walls are stated in the block's length unit and the mass in electron masses.
   const lengthUnit = result.quantity ? `\\ \\mathrm{${inputs.lengthUnit}}` : '';
-  const where = inputs.box ? `${q} \\in [${formatNumber(inputs.box[0], 10)}, ${formatNumber(inputs.box[1], 10)}]${lengthUnit}` : inputs.space === 'line' ? `${q} \\in \\mathbb{R}` : `${q} \\ge 0`;
-  const massTex = inputs.massTex === null ? `m = ${result.quantity ? `${inputs.mass}\\,m_e` : `${inputs.mass}`}` : `m(${q}) = ${inputs.massTex}`;
+  const where = whereTex(inputs, lengthUnit);
+  const massTex = inputs.masses
+    ? Object.entries(inputs.masses).map(([c, m]) => `m_{${coordinateTex(c)}} = ${m}`).join(', ')
+    : inputs.massTex === null ? `m = ${result.quantity ? `${inputs.mass}\\,m_e` : `${inputs.mass}`}` : `m(${q}) = ${inputs.massTex}`;
   const rows = [
     `<div>${tex(`H = ${kinetic} + ${inputs.potentialTex}, \\quad ${where}, \\quad ${massTex}`, true)}</div>`,
     inputs.trialTex !== null
-      ? `<div>${tex(`${inputs.space === 'radial' ? 'R' : '\\psi'}(${q}) = ${inputs.trialTex}`, true)}</div>`
-      : `<div>Basis (linear variational method, ${result.states.length} level${result.states.length === 1 ? '' : 's'} reported):${tex(`${inputs.space === 'radial' ? 'R' : '\\psi'}(${q}) = \\sum_i c_i \\phi_i(${q})`, true)}<ol start="0" class="gw-basis">${(inputs.basisTex ?? []).map((b) => `<li>${tex(`\\phi = ${b}`)}</li>`).join('')}</ol></div>`,
+      ? `<div>${tex(`${stateTex(inputs)} = ${inputs.trialTex}`, true)}</div>`
+      : `<div>Basis (linear variational method, ${result.states.length} level${result.states.length === 1 ? '' : 's'} reported):${tex(`${stateTex(inputs)} = \\sum_i c_i \\phi_i(${inputs.coordinates.map(coordinateTex).join(', ')})`, true)}<ol start="0" class="gw-basis">${(inputs.basisTex ?? []).map((b) => `<li>${tex(`\\phi = ${b}`)}</li>`).join('')}</ol></div>`,
   ];
   // Units stay outside the math: they are written as mathjs spells them (nm^-1), not as TeX.
   // From the block's units rather than the results, so an invalid block's ranges keep theirs too.
@@ -81,11 +83,46 @@ function renderInputs(result: BlockResult): string {
   return `<div class="gw-inputs">${rows.join('\n')}</div>`;
 }
 
+/** The kinetic-energy operator of the block's space (radial, plane and axial with their angular parts). */
 function constantMassKinetic(inputs: BlockInputs): string {
   const l = inputs.angularMomentum;
-  return inputs.space === 'radial'
-    ? `-\\frac{\\hbar^2}{2m}\\frac{1}{r^2}\\frac{d}{dr}r^2\\frac{d}{dr}${l ? `+\\frac{${l * (l + 1)}\\hbar^2}{2m r^2}` : ''}`
-    : `-\\frac{\\hbar^2}{2m}\\frac{d^2}{d${inputs.coordinate}^2}`;
+  const space = inputs.space;
+  if (space === 'radial') return `-\\frac{\\hbar^2}{2m}\\frac{1}{r^2}\\frac{d}{dr}r^2\\frac{d}{dr}${l ? `+\\frac{${l * (l + 1)}\\hbar^2}{2m r^2}` : ''}`;
+  if (space === 'plane') return `-\\frac{\\hbar^2}{2m}\\frac{1}{r}\\frac{d}{dr}r\\frac{d}{dr}${l ? `+\\frac{${l * l}\\hbar^2}{2m r^2}` : ''}`;
+  if (space === 'axial') return `-\\frac{\\hbar^2}{2m}\\left(\\frac{1}{\\rho}\\frac{\\partial}{\\partial\\rho}\\rho\\frac{\\partial}{\\partial\\rho}+\\frac{\\partial^2}{\\partial z^2}\\right)${l ? `+\\frac{${l * l}\\hbar^2}{2m\\rho^2}` : ''}`;
+  if (typeof space === 'object') {
+    return inputs.coordinates
+      .map((c) => `-\\frac{\\hbar^2}{2m${inputs.masses ? `_{${coordinateTex(c)}}` : ''}}\\frac{\\partial^2}{\\partial ${coordinateTex(c)}^2}`)
+      .join('');
+  }
+  return `-\\frac{\\hbar^2}{2m}\\frac{d^2}{d${inputs.coordinate}^2}`;
+}
+
+/** A coordinate name as TeX: rho as the Greek letter, x1 as x_1. */
+function coordinateTex(name: string): string {
+  if (name === 'rho') return '\\rho';
+  const m = /^([A-Za-z]+)(\d+)$/.exec(name);
+  return m ? `${m[1]}_{${m[2]}}` : name;
+}
+
+/** The state the trial stands for: the radial factor R on radial and plane, psi of every coordinate otherwise. */
+function stateTex(inputs: BlockInputs): string {
+  const f = inputs.space === 'radial' || inputs.space === 'plane' ? 'R' : '\\psi';
+  return `${f}(${inputs.coordinates.map(coordinateTex).join(', ')})`;
+}
+
+/** Where the coordinates range. */
+function whereTex(inputs: BlockInputs, lengthUnit: string): string {
+  const space = inputs.space;
+  const q = inputs.coordinate;
+  if (inputs.box) return `${q} \\in [${formatNumber(inputs.box[0], 10)}, ${formatNumber(inputs.box[1], 10)}]${lengthUnit}`;
+  if (space === 'axial') return '\\rho \\ge 0,\\ z \\in \\mathbb{R}';
+  if (typeof space === 'object') {
+    return Object.entries(space)
+      .map(([c, range]) => `${coordinateTex(c)} ${Array.isArray(range) ? `\\in [${range[0]}, ${range[1]}]` : range === 'line' ? '\\in \\mathbb{R}' : '\\ge 0'}`)
+      .join(',\\ ');
+  }
+  return space === 'line' ? `${q} \\in \\mathbb{R}` : `${q} \\ge 0`;
 }
 
 /** The BenDaniel–Duke kinetic operator of a position-dependent mass. */

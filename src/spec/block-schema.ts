@@ -46,6 +46,9 @@ export const RESERVED_NAMES = ['x', 'r', 'pi', 'e', 'mass', 'hbar'] as const;
 export const NAME = /^[A-Za-z][A-Za-z0-9_]*$/;
 const name = z.string().regex(NAME, 'must be a name of letters, digits and _ starting with a letter');
 
+const coordinateRange = z.union([z.enum(['line', 'half-line']), z.tuple([finite, finite])], {
+  errorMap: () => ({ message: 'each coordinate must be line, half-line or [a, b]' }),
+});
 const referenceFields = z
   .object(
     { solve: z.boolean({ invalid_type_error: 'must be true or false' }).optional(), energy: quantity.optional(), tolerance: positiveQuantity.optional(), source: z.string({ invalid_type_error: 'must be text (a citation)' }).min(1).optional() },
@@ -63,10 +66,18 @@ export const blockSchema = z
     caption: z.string().optional(),
     system: z.string({ invalid_type_error: 'must be text: the name of the physical system, shared by the blocks about it' }).regex(/^[A-Za-z0-9][A-Za-z0-9_-]*$/, 'must be a slug: letters, digits, - and _').optional(),
     units: z.union([z.literal('atomic'), z.record(z.string())], { errorMap: () => ({ message: 'must be atomic or a map such as { length: nm, energy: meV }' }) }).optional(),
-    space: z.enum(['line', 'half-line', 'radial'], { errorMap: () => ({ message: 'must be one of line, half-line, radial' }) }).optional(),
+    space: z
+      .union([z.enum(['line', 'half-line', 'radial', 'plane', 'axial']), z.record(name, coordinateRange)], {
+        errorMap: () => ({ message: 'must be one of line, half-line, radial, plane, axial, or a map of 2 or 3 coordinates such as { x: line, y: [0, 2] }' }),
+      })
+      .optional(),
     box: z.tuple([quantity, quantity], { errorMap: () => ({ message: 'must be [a, b] with two numbers' }) }).optional(),
-    'angular-momentum': z.number({ invalid_type_error: 'must be a whole number 0, 1, 2, ...' }).int('must be an integer').min(0, 'must be 0 or more').optional(),
-    mass: positiveQuantity.optional(),
+    'angular-momentum': z.number({ invalid_type_error: 'must be a whole number (l = 0, 1, 2, ... on radial; m = 0, +-1, +-2, ... on plane)' }).int('must be an integer').optional(),
+    mass: z
+      .union([positiveQuantity, z.record(name, positiveQuantity).refine((masses) => !isUncertain(masses), { message: UNCERTAIN })], {
+        errorMap: (_issue, ctx) => ({ message: typeof ctx.data === 'object' && !isUncertain(ctx.data) ? 'must be a map of positive masses per coordinate' : numberMessage(ctx.data, true) }),
+      })
+      .optional(),
     constants: z.record(name, quantity).optional(),
     potential: expression,
     trial: expression.optional(),

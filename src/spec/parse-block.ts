@@ -2,7 +2,7 @@ import { isScalar, LineCounter, parseDocument, type Document } from 'yaml';
 import type { ZodIssue } from 'zod';
 import { blockSchema, knownFields, RESERVED_NAMES, type QuantityText, type RawBlock } from './block-schema.ts';
 import type { FencedBlock } from './find-blocks.ts';
-import type { BlockEntry, BlockSpec, Claimed, SpecProblem } from './types.ts';
+import { coordinatesOf, isLineSpace, spaceLabel, type BlockEntry, type BlockSpec, type Claimed, type SpecProblem } from './types.ts';
 import { didYouMean } from './nearest-name.ts';
 import { writtenPrecision } from './written-precision.ts';
 import { locateYamlError } from './yaml-errors.ts';
@@ -96,7 +96,7 @@ type Path = (string | number)[];
 /** Every field that holds a number, or in quantity mode a quantity, with its path. */
 function quantityFields(raw: RawBlock): Array<[Path, number | string]> {
   const fields: Array<[Path, number | string | undefined]> = [
-    [['mass'], raw.mass],
+    ...(typeof raw.mass === 'object' ? Object.entries(raw.mass).map(([k, v]): [Path, number | string] => [['mass', k], v]) : [[['mass'], raw.mass] as [Path, number | string | undefined]]),
     [['reference', 'energy'], raw.reference?.energy],
     [['reference', 'tolerance'], raw.reference?.tolerance],
     [['claim', 'energy'], raw.claim?.energy],
@@ -145,7 +145,8 @@ function quantitySource(raw: RawBlock & { units: Record<string, string> }, line:
     space: raw.space ?? 'line',
     box: raw.box ? [at(['box', 0], raw.box[0]), at(['box', 1], raw.box[1])] : null,
     angularMomentum: raw['angular-momentum'] ?? 0,
-    mass: optional(['mass'], raw.mass),
+    // A mass per coordinate is refused in quantity mode (meaningProblems), so the mass here is one quantity.
+    mass: typeof raw.mass === 'object' ? null : optional(['mass'], raw.mass),
     constants: Object.fromEntries(Object.entries(raw.constants ?? {}).map(([k, v]) => [k, at(['constants', k], v)])),
     ...expressions(raw, lineOf),
     varied,
@@ -175,7 +176,7 @@ function meaningProblems(raw: RawBlock): Array<[(string | number)[], string]> {
   const found: Array<[(string | number)[], string]> = [];
   const quantityMode = isQuantityMode(raw);
   if (!quantityMode) {
-    const coordinate = raw.space === 'radial' ? 'r' : 'x';
+    const coordinate = coordinatesOf(raw.space ?? 'line')[0];
     for (const [path, value] of quantityFields(raw)) {
       // Text under mass that names the coordinate is a position-dependent mass, read by compileBlock.
       if (typeof value !== 'string' || (path[0] === 'mass' && namesCoordinate(value, coordinate))) continue;
@@ -191,12 +192,16 @@ function meaningProblems(raw: RawBlock): Array<[(string | number)[], string]> {
   for (const field of ['symmetry', 'level'] as const) {
     if (raw[field] !== undefined && raw.basis !== undefined) found.push([[field], `${field} goes with a single trial: a basis reports its lowest levels (states)`]);
   }
-  if (raw.symmetry !== undefined && space !== 'line') found.push([['symmetry'], `symmetry (parity under x -> -x) applies to space line only, not ${space}`]);
+  if (raw.symmetry !== undefined && space !== 'line') found.push([['symmetry'], `symmetry (parity under x -> -x) applies to space line only, not ${spaceLabel(space)}`]);
+  if (raw.level !== undefined && !isLineSpace(space)) found.push([['level'], `level is not yet available on ${spaceLabel(space)}: a block there is compared with the ground level`]);
   if (raw.box !== undefined) {
-    if (space !== 'line') found.push([['box'], `box applies to space line only, not ${space}`]);
+    if (space !== 'line') found.push([['box'], `box applies to space line only, not ${spaceLabel(space)}${typeof space === 'object' ? ' (give each coordinate its range [a, b] in the map)' : ''}`]);
     else if (typeof raw.box[0] === 'number' && typeof raw.box[1] === 'number' && !(raw.box[0] < raw.box[1])) found.push([['box'], `box [${raw.box[0]}, ${raw.box[1]}] must have its left wall below its right wall`]);
   }
-  if (raw['angular-momentum'] !== undefined && space !== 'radial') found.push([['angular-momentum'], 'angular-momentum applies to space radial only']);
+  found.push(...spaceProblems(raw, quantityMode));
+  const angular = raw['angular-momentum'];
+  if (angular !== undefined && space !== 'radial' && space !== 'plane' && space !== 'axial') found.push([['angular-momentum'], 'angular-momentum applies to spaces radial, plane and axial only']);
+  else if (typeof angular === 'number' && space === 'radial' && angular < 0) found.push([['angular-momentum'], `must be 0 or more on space radial (l = ${angular}); only plane takes a negative m`]);
   if (raw.reference?.energy !== undefined && raw.reference.source === undefined) found.push([['reference', 'source'], 'a published reference energy needs its source (a citation)']);
   if (raw.reference?.tolerance !== undefined && raw.reference.energy === undefined) found.push([['reference', 'tolerance'], 'tolerance applies to a published reference energy, and none is given']);
   if (raw.claim?.tolerance !== undefined && raw.claim.energy === undefined) found.push([['claim', 'tolerance'], 'tolerance applies to a claimed energy, and none is given']);
@@ -222,8 +227,46 @@ function meaningProblems(raw: RawBlock): Array<[(string | number)[], string]> {
   return found;
 }
 
+/** Rules of the spaces with more than one coordinate: how many coordinates, their ranges and names, masses per coordinate. */
+function spaceProblems(raw: RawBlock, quantityMode: boolean): Array<[Path, string]> {
+  const found: Array<[Path, string]> = [];
+  const space = raw.space ?? 'line';
+  if (typeof space === 'object') {
+    const names = Object.keys(space);
+    if (names.length < 2 || names.length > 3) found.push([['space'], `a product space has 2 or 3 coordinates, not ${names.length}`]);
+    for (const name of names) {
+      const range = space[name];
+      if (Array.isArray(range) && !(range[0] < range[1])) found.push([['space', name], `[${range[0]}, ${range[1]}] must have its left wall below its right wall`]);
+      if (['pi', 'e', 'mass', 'hbar'].includes(name)) found.push([['space', name], `${name} is a built-in name and cannot be a coordinate`]);
+      if (quantityMode && Array.isArray(range)) found.push([['space', name], 'a coordinate range [a, b] is not yet read in quantity mode: write the block in atomic units']);
+    }
+    if (raw.basis !== undefined) found.push([['basis'], 'a basis (linear method) is not yet available on a product space: write one trial']);
+  }
+  if (space === 'axial' && raw.basis !== undefined) found.push([['basis'], 'a basis (linear method) is not yet available on space axial: write one trial']);
+  const coordinates = coordinatesOf(space);
+  for (const [group, names] of [['constants', Object.keys(raw.constants ?? {})], ['parameters', Object.keys(raw.parameters ?? {})]] as const) {
+    for (const name of names) {
+      if (coordinates.includes(name) && !(RESERVED_NAMES as readonly string[]).includes(name)) found.push([[group, name], `${name} is a coordinate of this space; choose another name`]);
+    }
+  }
+  // In quantity mode text is a mass with its unit; it depends on the coordinates only where it names one.
+  const massNamesCoordinate = typeof raw.mass === 'string' && (!quantityMode || coordinatesOf(space).some((c) => namesCoordinate(raw.mass as string, c)));
+  if (massNamesCoordinate && (typeof space === 'object' || space === 'axial')) {
+    found.push([['mass'], 'a mass that depends on the coordinates is available on spaces of one coordinate only; give a number (or a map of numbers per coordinate on a product space)']);
+  }
+  if (typeof raw.mass === 'object') {
+    if (typeof space !== 'object') found.push([['mass'], `a mass per coordinate applies to a product space (a map of coordinates), not ${space}`]);
+    else {
+      for (const name of Object.keys(raw.mass)) if (!(name in space)) found.push([['mass', name], `${name} is not a coordinate of this space (${Object.keys(space).join(', ')})`]);
+      for (const name of Object.keys(space)) if (!(name in raw.mass)) found.push([['mass'], `the mass map gives no mass for coordinate ${name}`]);
+    }
+    if (quantityMode) found.push([['mass'], 'a mass per coordinate is not yet read in quantity mode: write the block in atomic units']);
+  }
+  return found;
+}
+
 /** Whether the text holds the coordinate as a name of its own (not inside exp or max). */
-function namesCoordinate(text: string, coordinate: 'x' | 'r'): boolean {
+function namesCoordinate(text: string, coordinate: string): boolean {
   return new RegExp(`(^|[^A-Za-z0-9_])${coordinate}([^A-Za-z0-9_]|$)`).test(text);
 }
 
@@ -251,7 +294,8 @@ function toSpec(raw: AtomicBlock, line: number, doc: Document, lineOf: (path: (s
     space: raw.space ?? 'line',
     box: raw.box ?? null,
     angularMomentum: raw['angular-momentum'] ?? 0,
-    mass: typeof raw.mass === 'string' ? { text: raw.mass, line: lineOf(['mass']) } : (raw.mass ?? 1),
+    mass: typeof raw.mass === 'string' ? { text: raw.mass, line: lineOf(['mass']) } : typeof raw.mass === 'object' ? 1 : (raw.mass ?? 1),
+    masses: typeof raw.mass === 'object' ? (raw.mass as Record<string, number>) : null,
     constants: raw.constants ?? {},
     ...expressions(raw, lineOf),
     varied,

@@ -1,6 +1,32 @@
 /** The record and spec-block contract (RECORD-FORMAT.md) as types: what the spec layer hands on. */
 
-export type Space = 'line' | 'half-line' | 'radial';
+/** A space of one coordinate. */
+export type LineSpace = 'line' | 'half-line' | 'radial' | 'plane';
+
+/** The range of one Cartesian coordinate of a product space. */
+export type CoordinateRange = 'line' | 'half-line' | [number, number];
+
+/** 2 or 3 named Cartesian coordinates, in the order written, each with its range. */
+export type ProductSpace = Record<string, CoordinateRange>;
+
+export type Space = LineSpace | 'axial' | ProductSpace;
+
+/** The coordinates a space's expressions are written in, in point order. */
+export function coordinatesOf(space: Space): string[] {
+  if (typeof space === 'object') return Object.keys(space);
+  if (space === 'axial') return ['rho', 'z'];
+  return [space === 'radial' || space === 'plane' ? 'r' : 'x'];
+}
+
+/** Whether the space has one coordinate (the engine's line spaces). */
+export function isLineSpace(space: Space): space is LineSpace {
+  return typeof space === 'string' && space !== 'axial';
+}
+
+/** The space as a word for messages: its name, or the product of its coordinates. */
+export function spaceLabel(space: Space): string {
+  return typeof space === 'object' ? `{ ${Object.entries(space).map(([k, v]) => `${k}: ${Array.isArray(v) ? `[${v.join(', ')}]` : v}`).join(', ')} }` : space;
+}
 
 /** Where a problem sits, so every message can name file, line, block and field. */
 export interface SpecProblem {
@@ -77,9 +103,11 @@ export interface BlockSpec {
   angularMomentum: number;
   /**
    * The mass in electron masses: a number, or an expression of the coordinate (in bohr) for a position-dependent
-   * mass (heterostructures), compiled by compileBlock; in quantity mode its units are bound in `constants`.
+   * mass (heterostructures), compiled by compileBlock; in quantity mode its units are bound in `constants`. With a
+   * mass per coordinate (product spaces) it is 1 and `masses` gives each.
    */
   mass: number | SourceText;
+  masses: Record<string, number> | null;
   constants: Record<string, number>;
   potential: SourceText;
   /** Exactly one of trial and basis is given. */

@@ -1,4 +1,4 @@
-import type { BlockSpec, Claimed, SourceText, Space, SpecProblem, StatedUnit } from '../spec/types.ts';
+import { coordinatesOf, type BlockSpec, type Claimed, type SourceText, type Space, type SpecProblem, type StatedUnit } from '../spec/types.ts';
 import { parse } from 'mathjs';
 import { dependsOn } from '../expr/differentiate.ts';
 import type { DimensionScope } from './check-dimensions.ts';
@@ -90,7 +90,7 @@ export function convertQuantityBlock(file: string, block: QuantityBlockSource): 
 
   // A bare mass counts electron masses, as in atomic units.
   let mass: BlockSpec['mass'] = 1;
-  const coordinate = block.space === 'radial' ? 'r' : 'x';
+  const coordinate = coordinatesOf(block.space)[0];
   const massProfile = block.mass && dependsOnCoordinate(block.mass.text, coordinate) ? block.mass : null;
   if (block.mass && !massProfile) {
     const m = reader.quantity('mass', block.mass, MASS, ELECTRON_MASS);
@@ -99,7 +99,7 @@ export function convertQuantityBlock(file: string, block: QuantityBlockSource): 
   }
 
   const scope: { variables: Record<string, DimensionOrAny>; constants: Record<string, { dimension: DimensionOrAny; atomic: number }> } = {
-    variables: { [block.space === 'radial' ? 'r' : 'x']: LENGTH },
+    variables: Object.fromEntries(coordinatesOf(block.space).map((c) => [c, LENGTH])),
     constants: { ...QUANTITY_SCOPE.constants, ...(massProfile || typeof mass !== 'number' ? {} : { mass: { dimension: MASS, atomic: mass } }) },
   };
   const declared: Record<string, number> = {};
@@ -203,6 +203,7 @@ export function convertQuantityBlock(file: string, block: QuantityBlockSource): 
       box,
       angularMomentum: block.angularMomentum,
       mass,
+      masses: null,
       constants: { ...bound, ...declared },
       potential: block.potential,
       trial: block.trial,

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { domainOf } from '../../src/engine/domain.ts';
+import { spaceOf } from '../../src/engine/spaces/space-of.ts';
 import { EXPECTATION_DEFAULTS, expectation, searchExpectation } from '../../src/engine/expectation.ts';
 import type { VariationalProblem } from '../../src/engine/problem.ts';
 
@@ -37,7 +37,7 @@ describe('searchExpectation', () => {
       [oscillator, oscillatorEnergy, [1, 0.9, 0.62, 0.5, 0.5000001, 0.4999999]],
       [hydrogen, hydrogenEnergy, [1, 0.6, 0.35, 0.283, 8 / (9 * Math.PI)]],
     ] as const) {
-      const domain = domainOf(problem.space, null);
+      const domain = spaceOf(problem);
       const atPoint = searchExpectation(problem, domain, [], expectation(problem, domain, [], [path[0]]));
       let searched = 0;
       let fresh = 0;
@@ -55,7 +55,7 @@ describe('searchExpectation', () => {
   });
 
   it('stays right when the trial jumps to widths far from where the quadrature was placed', () => {
-    const domain = domainOf('line', null);
+    const domain = spaceOf(oscillator);
     const atPoint = searchExpectation(oscillator, domain, [], expectation(oscillator, domain, [], [1]));
     for (const a of [1, 1e-4, 1e4, 3e-3, 0.5, 200]) {
       expect(relativeError(atPoint([a]).energy, oscillatorEnergy(a)), `a = ${a}`).toBeLessThan(10 * EXPECTATION_DEFAULTS.relTol);
@@ -64,7 +64,7 @@ describe('searchExpectation', () => {
 
   it('reports a point where the trial cannot be normalised as +Infinity, and goes on', () => {
     // exp(+x^2) (a = -1) overflows: no finite norm (elementary)
-    const domain = domainOf('line', null);
+    const domain = spaceOf(oscillator);
     const atPoint = searchExpectation(oscillator, domain, [], expectation(oscillator, domain, [], [1]));
     expect(atPoint([-1]).energy).toBe(Infinity);
     expect(relativeError(atPoint([0.7]).energy, oscillatorEnergy(0.7))).toBeLessThan(10 * EXPECTATION_DEFAULTS.relTol);

@@ -70,7 +70,7 @@ const EXPECTED: Record<string, Expected> = {
   'unknown-name': { blocks: [invalid('omega-d8', 'unknown name omega', on('potential', 'potential: omega'))] },
   'unknown-function': { blocks: [invalid('gamma-d9', 'function gamma is not allowed', on('trial', 'trial:'))] },
   'bad-id-slug': { blocks: [invalid('dot d10!', 'must be a slug', on('id', 'id: dot d10!'))] },
-  'space-unknown': { blocks: [invalid('sphere-d11', 'must be one of line, half-line, radial', on('space', 'space: sphere'))] },
+  'space-unknown': { blocks: [invalid('sphere-d11', 'must be one of line, half-line, radial, plane', on('space', 'space: sphere'))] },
   'mass-zero': { blocks: [invalid('massless-d12', 'must be positive', on('mass', 'mass: 0'))] },
   'huge-numbers': {
     blocks: [
@@ -124,7 +124,7 @@ const EXPECTED: Record<string, Expected> = {
   'reserved-parameter-name': { blocks: [invalid('reserved-s5', 'x is a reserved name', on('parameters.x', '  x: 2'))] },
   'box-on-radial': { blocks: [invalid('radbox-s6', 'box applies to space line only, not radial', on('box', 'box:'))] },
   'box-reversed': { blocks: [invalid('flipbox-s7', 'box [1, 0] must have its left wall below its right wall', on('box', 'box:'))] },
-  'angular-momentum-on-line': { blocks: [invalid('lline-s8', 'angular-momentum applies to space radial only', on('angular-momentum', 'angular-momentum:'))] },
+  'angular-momentum-on-line': { blocks: [invalid('lline-s8', 'angular-momentum applies to spaces radial, plane and axial only', on('angular-momentum', 'angular-momentum:'))] },
   'angular-momentum-fractional': { blocks: [invalid('lhalf-s9', 'must be an integer', on('angular-momentum', 'angular-momentum:'))] },
   'two-hundred-parameters': { blocks: [invalid('many-s10', '200 parameters are varied; at most 32', on('parameters', 'parameters:'))] },
   // References and claims

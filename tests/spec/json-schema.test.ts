@@ -25,7 +25,7 @@ describe('the spec block JSON Schema', () => {
 
   it('refuses a misspelt field and a wrong type, as the parser does', () => {
     expect(validate({ id: 'a', potental: 'x^2', trial: 'exp(-x^2)' })).toBe(false);
-    expect(validate({ id: 'a', potential: 'x^2', trial: 'exp(-x^2)', space: 'plane' })).toBe(false);
+    expect(validate({ id: 'a', potential: 'x^2', trial: 'exp(-x^2)', space: 'sphere' })).toBe(false);
     expect(validate({ id: 'a', potential: 'x^2', trial: 'exp(-x^2)', system: 'oscillator' })).toBe(true);
   });
 

@@ -1,6 +1,6 @@
 // Integrals over a product of 2 or 3 coordinate ranges (a rectangle or box, ends possibly infinite),
 // several integrands at once: the norm, kinetic and potential integrals of a trial share its values.
-import { splitPoints } from '../domain.ts';
+import { splitPoints } from '../spaces/space.ts';
 import { integrateVector, type IntegrationOptions, type IntegrationResult, type IntegrationStatus, type Partition, type VectorIntegrand } from '../quadrature.ts';
 
 export type ProductIntegrand = (point: Float64Array, out: Float64Array) => void;
@@ -102,7 +102,7 @@ export function integrateProduct(integrand: ProductIntegrand, components: number
     if (!(axis.lo < axis.hi)) throw new RangeError(`integrateProduct: axis ${i} needs lo < hi`);
     if (!(axis.scale > 0)) throw new RangeError(`integrateProduct: axis ${i} needs a positive scale`);
     const interior = Number.isFinite(axis.center) ? [...axis.breakpoints, axis.center] : axis.breakpoints;
-    return { axis: i, scale: axis.scale, splits: splitPoints({ lo: axis.lo, hi: axis.hi, walls: [], radial: false }, interior), width: effectiveWidth(axis) };
+    return { axis: i, scale: axis.scale, splits: splitPoints({ lo: axis.lo, hi: axis.hi, walls: [] }, interior), width: effectiveWidth(axis) };
   });
   const setting = { integrand, components, levels, relTol, absTol, maxIntervals, start: options.start };
   const result = nest(setting, TAIL_SHARE);
