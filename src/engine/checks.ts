@@ -81,7 +81,7 @@ export function referenceChecks(problem: CheckedProblem, energy: number, toleran
         const allowed = published.tolerance + slack;
         checks.push(
           measured(
-            gradedCheck('grid-matches-published', gap <= allowed, `|${name} - published| = ${show.energy(gap, 3)} (allowed ${show.energy(allowed, 3)}: the published value's precision plus the grid's)`, 'unsettled'),
+            gradedCheck('grid-matches-published', gap <= allowed, `|${name} - published| = ${show.energy(gap, 3)} (allowed ${show.energy(allowed, 3)}: the published value's precision plus the grid's)${toleranceNote(published, show)}`, 'unsettled'),
             { value: gap, limit: allowed, relation: '<=', quantity: 'energy' },
           ),
         );
@@ -92,7 +92,7 @@ export function referenceChecks(problem: CheckedProblem, energy: number, toleran
     const slack = published.tolerance + tolerance;
     checks.push(
       measured(
-        gradedCheck('above-published-reference', energy >= published.value - slack, `E - E(published) = ${show.energy(energy - published.value, 4)} (must be >= -${show.energy(slack, 2)}; ${published.source})`, 'below-reference'),
+        gradedCheck('above-published-reference', energy >= published.value - slack, `E - E(published) = ${show.energy(energy - published.value, 4)} (must be >= -${show.energy(slack, 2)}; ${published.source})${toleranceNote(published, show)}`, 'below-reference'),
         { value: energy - published.value, limit: -slack, relation: '>=', quantity: 'energy' },
       ),
     );
@@ -126,6 +126,11 @@ export function claimChecks(problem: CheckedProblem, energy: number, best: numbe
     );
   }
   return checks;
+}
+
+/** Which tolerance the published value was given and why, for the details of the checks that use it. */
+function toleranceNote(published: NonNullable<ProblemBase['reference']['published']>, show: typeof ATOMIC_DISPLAY): string {
+  return published.toleranceBasis ? `; published value taken to +/- ${show.energy(published.tolerance, 3)}, ${published.toleranceBasis}` : '';
 }
 
 /**

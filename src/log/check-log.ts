@@ -5,7 +5,7 @@ import type { BlockTask } from './evaluate-task.ts';
 import { inputHash } from './input-hash.ts';
 import { invalidBlock, unparsedBlock } from './invalid-block.ts';
 import { loadLogConfig, type LogConfig } from './log-config.ts';
-import { readRecordText, recordResult } from './record-text.ts';
+import { readRecordText, recordResult, type RecordText } from './record-text.ts';
 import { openResultCache, type SpecEntry } from './result-cache.ts';
 import type { BlockResult, LogResult, RecordResult } from './result-types.ts';
 import type { RecordSpec } from '../spec/types.ts';
@@ -44,6 +44,12 @@ export function collectRecordFiles(paths: string[]): { files: string[]; missing:
   };
   paths.forEach(walk);
   return { files: [...new Set(files)], missing };
+}
+
+/** A record given by its text instead of a file: an older version of it read from git. `name` is what results call it. */
+export interface RecordSource {
+  name: string;
+  text: string;
 }
 
 export interface CheckLogOptions {
@@ -85,7 +91,7 @@ export interface CheckStats {
  * stored. Records and blocks come out in the order of `files` and of the blocks in each file, however
  * the workers finish.
  */
-export async function checkLog(files: string[], options: CheckLogOptions = {}): Promise<{ log: LogResult; stats: CheckStats }> {
+export async function checkLog(files: Array<string | RecordSource>, options: CheckLogOptions = {}): Promise<{ log: LogResult; stats: CheckStats }> {
   const root = options.root ?? process.cwd();
   const config = options.config ?? loadLogConfig(root);
   const cache = openResultCache(config.cacheFolder);
@@ -94,7 +100,7 @@ export async function checkLog(files: string[], options: CheckLogOptions = {}): 
   const parsed: Array<{ spec: RecordSpec; text: string } | null> = [];
   let parseRecord = options.parseRecord;
   for (const file of files) {
-    const read = readRecordText(file, root);
+    const read: RecordText = typeof file === 'string' ? readRecordText(file, root) : { kind: 'text', ...file };
     const hit = read.kind === 'unreadable' ? read.result : options.recompute ? null : cache.getRecord(read.name, read.text);
     done.push(hit);
     if (hit || read.kind === 'unreadable') parsed.push(null);

@@ -41,6 +41,23 @@ export interface BlockInputs {
   ranges: Array<{ name: string; start: number; min: number; max: number }>;
 }
 
+/**
+ * The block's Hamiltonian as the systems view compares it (src/log/systems.ts): potential and mass sampled at
+ * samplePoints(space, box), fixed points in bohr, null where not finite. Like every figure of a result, the walls
+ * and the potential are stated in the block's units (`quantity`); the mass in electron masses.
+ */
+export interface Hamiltonian {
+  space: string;
+  /** The walls, or null. */
+  box: [number, number] | null;
+  angularMomentum: number;
+  /** The name the block's `system:` field gives, or null. */
+  system: string | null;
+  potential: Array<number | null>;
+  /** Electron masses. */
+  mass: Array<number | null>;
+}
+
 export interface BlockResult {
   id: string;
   line: number;
@@ -93,6 +110,8 @@ export interface BlockResult {
   } | null;
   /** Quantity mode: the units the numbers above are stated in and the physical constants behind them; null in atomic units. */
   quantity: QuantityMode | null;
+  /** What the block's Hamiltonian is, for finding the other blocks on the same system; null when its expressions did not compile. */
+  hamiltonian: Hamiltonian | null;
   inputHash: string;
   timeMs: number;
   /** The reviewer's summary derived from the fields above (block-verdict.ts); present in JSON output, not in the cache. */

@@ -58,6 +58,11 @@ export function inBlockUnits(result: BlockResult, units: QuantityMode): BlockRes
       ranges: inputs.ranges.map((r) => ({ name: r.name, start: parameter(r.name, r.start), min: parameter(r.name, r.min), max: parameter(r.name, r.max) })),
     },
     energy: result.energy && { value: energy(result.energy.value), unit: units.energy.unit },
+    hamiltonian: result.hamiltonian && {
+      ...result.hamiltonian,
+      box: result.hamiltonian.box && [result.hamiltonian.box[0] * L, result.hamiltonian.box[1] * L],
+      potential: result.hamiltonian.potential.map((v) => (v === null ? null : energy(v))),
+    },
     parameters: Object.fromEntries(
       Object.entries(result.parameters).map(([name, p]) => [name, { ...p, value: parameter(name, p.value), unit: s.parameter(name).unit }]),
     ),

@@ -8,6 +8,7 @@ import { blockVerdict, numericFloor, type Verdict } from '../log/block-verdict.t
 import type { BlockInputs, BlockResult } from '../log/result-types.ts';
 import { escapeHtml, formatAt, formatNearOne, formatNumber, MINUS, texNumber, typesetMessage, typesetUnit } from './html.ts';
 import { renderPlots } from './plots.ts';
+import { renderSystemLink, type SystemLink } from './review-html.ts';
 
 const tex = (source: string, display = false) => katex.renderToString(source, { displayMode: display, throwOnError: false, output: 'htmlAndMathml' });
 
@@ -31,6 +32,8 @@ export interface PanelContext {
   file: string;
   git: LastCommit | null;
   provenance: Provenance;
+  /** The system a block belongs to across the log, when it shares one with other blocks. */
+  systemOf?: (blockId: string) => SystemLink | null;
 }
 
 /** The result panel that stands in a record's page where its spec block was written. */
@@ -42,6 +45,8 @@ export function renderBlockPanel(result: BlockResult, context: PanelContext): st
     `<header><h2 id="block-${id}-heading"><span class="gw-caption">${escapeHtml(result.caption ?? `Block ${result.id}`)}</span> <a class="gw-self" href="#block-${id}" title="link to this block"><code>${id}</code></a></h2></header>`,
     renderVerdict(result, verdict),
   ];
+  const system = context.systemOf?.(result.id);
+  if (system) parts.push(renderSystemLink(system));
   if (result.problems.length > 0) {
     parts.push('<ul class="gw-problems">');
     for (const p of result.problems) parts.push(`<li><code>${escapeHtml(p.file)}:${p.line}</code> ${p.field ? `<code>${escapeHtml(p.field)}</code>: ` : ''}${escapeHtml(p.message)}</li>`);

@@ -188,7 +188,7 @@ function targetLevel(result: BlockResult): string {
  * A figure with its finding said twice: in the caption's first sentence and as the SVG's accessible name. Plot
  * names its mark groups with aria-label on bare g elements, which ARIA forbids; the name is kept on the svg alone.
  */
-function draw(options: Plot.PlotOptions, finding: string, encodings: string): string {
+export function draw(options: Plot.PlotOptions, finding: string, encodings: string): string {
   const figure = Plot.plot({ document, width: WIDTH, height: HEIGHT, marginLeft: 62, marginRight: 14, marginBottom: 42, marginTop: 24, style: STYLE, caption: `${finding} ${encodings}`, ...options }) as unknown as Element;
   for (const g of Array.from(figure.querySelectorAll('g[aria-label]'))) g.removeAttribute('aria-label');
   const svg = figure.querySelector('svg');

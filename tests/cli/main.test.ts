@@ -119,7 +119,7 @@ describe('groundwork check', () => {
     const { code, out } = await run(['--help']);
     expect(code).toBe(0);
     expect(out).toMatch(/^ {2}1 {2}some block is not confirmed/m);
-    expect(out).toMatch(/^ {2}2 {2}the check could not run: a path that does not exist, no records or no blocks found/m);
+    expect(out).toMatch(/^ {2}2 {2}the command could not run: a path that does not exist, no records or no blocks found/m);
   });
 
   it('takes a block refused before any numerics from the cache on the next run too, so nothing unchanged is evaluated', async () => {
