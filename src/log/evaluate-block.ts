@@ -9,7 +9,14 @@ import { cartesianSpace } from '../engine/spaces/cartesian.ts';
 import { compileBlock } from '../expr/compile-block.ts';
 import { compileFieldBlock } from '../expr/compile-field-block.ts';
 import { coordinatesOf, isLineSpace, type BlockEntry, type BlockSpec, type LineSpace, type SpecProblem } from '../spec/types.ts';
+import { claimChecks } from '../engine/checks.ts';
+import { fieldExpectationOf, lineExpectationOf, type ExtraExpectation } from '../engine/expectation-of.ts';
+import { ATOMIC_DISPLAY } from '../engine/format.ts';
+import { statusOf } from '../engine/status.ts';
+import type { Compiled } from '../expr/compile.ts';
+import { evaluateSweep } from './evaluate-sweep.ts';
 import { inputHash } from './input-hash.ts';
+import { sensitivities } from './sensitivities.ts';
 import { invalidBlock, unparsedBlock } from './invalid-block.ts';
 import { blockUnitsDisplay, inBlockUnits } from './units-back.ts';
 import type { BlockInputs, BlockResult } from './result-types.ts';
@@ -23,13 +30,24 @@ export function evaluateBlock(file: string, entry: BlockEntry): BlockResult {
     return unparsedBlock(entry, started);
   }
   const { spec } = entry;
+  const result = spec.sweep ? evaluateSweep(spec, (point, withSensitivities) => evaluateAtomic(file, point, withSensitivities)) : evaluateAtomic(file, spec, true);
+  return spec.quantity ? inBlockUnits(result, spec.quantity) : result;
+}
+
+/** One evaluation in atomic units, with the sensitivities and propagated uncertainty when asked for. */
+function evaluateAtomic(file: string, spec: BlockSpec, withSensitivities: boolean): BlockResult {
+  const started = performance.now();
   const hash = inputHash(spec);
-  const evaluated = isLineSpace(spec.space) ? evaluateLineBlock(spec) : evaluateFieldBlock(spec);
+  const evaluated = evaluateSpec(spec);
   if (!evaluated.ok) {
     const problems = evaluated.problems.map((p) => ({ file, line: p.line, block: spec.id, field: p.field, message: p.message }));
     return invalidBlock(spec.id, spec.line, spec.caption, problems, hash, started);
   }
-  const { engine, trees, mass } = evaluated;
+  const { trees, mass } = evaluated;
+  const sensitivityStarted = performance.now();
+  const response = withSensitivities && evaluated.engine.energy !== null && evaluated.engine.status !== 'invalid' ? blockSensitivities(spec, evaluated) : null;
+  const sensitivityMs = performance.now() - sensitivityStarted;
+  const engine = response ? withResponseChecks(spec, evaluated.engine, response) : evaluated.engine;
   const inputs: BlockInputs = {
     space: spec.space,
     coordinates: coordinatesOf(spec.space),
@@ -47,12 +65,82 @@ export function evaluateBlock(file: string, entry: BlockEntry): BlockResult {
     ranges: spec.varied.map(({ name, start, min, max }) => ({ name, start, min, max })),
   };
   const result = toBlockResult(file, spec, inputs, engine, hash, started);
-  return spec.quantity ? inBlockUnits(result, spec.quantity) : result;
+  return {
+    ...result,
+    sensitivities: response?.sensitivities ?? null,
+    uncertainty: response?.uncertainty ?? null,
+    diagnostics: result.diagnostics && { ...result.diagnostics, sensitivityMs },
+  };
 }
 
 type Evaluated =
-  | { ok: true; engine: EngineResult; trees: { potential: MathNode; mass: MathNode | null; trial: MathNode | null; basis: MathNode[] | null }; mass: number }
+  | {
+      ok: true;
+      engine: EngineResult;
+      trees: { potential: MathNode; mass: MathNode | null; trial: MathNode | null; basis: MathNode[] | null };
+      mass: number;
+      /** <f> over the optimum's density by the space's own integrator (f reads the coordinates from its first slots); null for a basis. */
+      expectationOf: ((f: Compiled, parameters: number[]) => ExtraExpectation) | null;
+    }
   | { ok: false; problems: Array<{ line: number; field: string | null; message: string }> };
+
+function evaluateSpec(spec: BlockSpec): Evaluated {
+  return isLineSpace(spec.space) ? evaluateLineBlock(spec) : evaluateFieldBlock(spec);
+}
+
+/** Sensitivities of the evaluated block, each finite difference and re-evaluation a re-optimisation without the grid reference. */
+function blockSensitivities(spec: BlockSpec, evaluated: Extract<Evaluated, { ok: true }>): ReturnType<typeof sensitivities> {
+  const { engine, trees } = evaluated;
+  const optimum = engine.parameters.map((p) => p.value);
+  // Warm-started at the optimum: the changed input moves it only a little.
+  const varied = spec.varied.map((p, i) => ({ ...p, start: Math.min(p.max, Math.max(p.min, optimum[i])) }));
+  const energyAt = (name: string, value: number): number | null => {
+    const changed: BlockSpec = {
+      ...withInput(spec, name, value),
+      varied,
+      reference: { solve: false, energy: null, source: null },
+      claim: null,
+      report: { ...spec.report, plots: [] },
+    };
+    const again = evaluateSpec(changed);
+    return again.ok && again.engine.status !== 'invalid' && again.engine.energy !== null ? again.engine.energy : null;
+  };
+  return sensitivities({
+    spec,
+    energy: engine.energy!,
+    energyError: engine.energyError ?? 0,
+    kinetic: engine.components?.kinetic ?? null,
+    optimum,
+    trees: { potential: trees.potential, states: trees.trial ? [trees.trial] : (trees.basis ?? []), mass: trees.mass },
+    expectationOf: evaluated.expectationOf && ((f) => evaluated.expectationOf!(f, optimum)),
+    energyAt,
+  });
+}
+
+/** The spec with one constant, fixed parameter or the mass set to another value. */
+export function withInput(spec: BlockSpec, name: string, value: number): BlockSpec {
+  if (name === 'mass') return { ...spec, mass: value };
+  if (Object.hasOwn(spec.fixed, name)) return { ...spec, fixed: { ...spec.fixed, [name]: value } };
+  return { ...spec, constants: { ...spec.constants, [name]: value } };
+}
+
+/**
+ * The engine's checks with the sensitivity checks added and, when the inputs are uncertain, the claimed energy
+ * checked within its tolerance plus the propagated uncertainty (the recomputed E is only known that well).
+ */
+function withResponseChecks(spec: BlockSpec, engine: EngineResult, response: ReturnType<typeof sensitivities>): EngineResult {
+  let checks = [...engine.checks, ...response.checks];
+  const claimed = spec.claim?.energy;
+  const widen = response.uncertainty?.uncertainty ?? 0;
+  if (claimed && widen > 0 && engine.energy !== null) {
+    const problem = { ...shared(spec), claim: { energy: { value: claimed.value, tolerance: claimed.tolerance + widen }, parameters: {} } };
+    const [widened] = claimChecks(problem, engine.energy, []);
+    const noted = { ...widened, detail: `${widened.detail}; tolerance includes the propagated uncertainty ${(problem.display ?? ATOMIC_DISPLAY).energy(widen, 3)}` };
+    checks = checks.map((c) => (c.name === 'claim-energy' ? noted : c));
+  }
+  if (checks.length === engine.checks.length && widen === 0) return engine;
+  return { ...engine, checks, ...statusOf(checks) };
+}
 
 /** A block on a space of one coordinate: compiled to functions of x (or r), evaluated by the one-coordinate engine. */
 function evaluateLineBlock(spec: BlockSpec): Evaluated {
@@ -69,7 +157,9 @@ function evaluateLineBlock(spec: BlockSpec): Evaluated {
     ...shared(spec),
   };
   const { trial, basis } = compiled.block;
-  return guarded(spec, () => (trial ? evaluateProblem({ ...base, trial }) : evaluateBasisProblem({ ...base, basis: basis!, states: spec.states })), compiled.block.trees, compiled.block.mass);
+  const slot = new Float64Array(1);
+  const expectationOf = trial ? (f: Compiled, parameters: number[]) => lineExpectationOf({ ...base, trial }, (x) => ((slot[0] = x), f(slot)), parameters) : null;
+  return guarded(spec, () => (trial ? evaluateProblem({ ...base, trial }) : evaluateBasisProblem({ ...base, basis: basis!, states: spec.states })), compiled.block.trees, compiled.block.mass, expectationOf);
 }
 
 /** A block on axial or a product space: compiled to functions of a point, evaluated by product cubature and grid. */
@@ -85,7 +175,8 @@ function evaluateFieldBlock(spec: BlockSpec): Evaluated {
       ? cartesianSpace(Object.entries(written).map(([name, range]) => ({ name, range, mass: spec.masses?.[name] ?? mass })))
       : axialSpace(spec.angularMomentum, mass);
   const problem: FieldProblem = { space, potential: block.potential, potentialSwitches: block.potentialSwitches, trial: block.trial, ...shared(spec) };
-  return guarded(spec, () => evaluateFieldProblem(problem), { potential: block.trees.potential, mass: null, trial: block.trees.trial, basis: null }, mass);
+  const expectationOf = (f: Compiled, parameters: number[]) => fieldExpectationOf(problem, (point) => f(point), parameters);
+  return guarded(spec, () => evaluateFieldProblem(problem), { potential: block.trees.potential, mass: null, trial: block.trees.trial, basis: null }, mass, expectationOf);
 }
 
 /** What every engine problem takes from the spec besides its space, potential and trial. */
@@ -103,9 +194,9 @@ function shared(spec: BlockSpec): Pick<ProblemBase, 'parameters' | 'reference' |
 }
 
 /** The evaluation, with an exception (a bug, never bad input) turned into an invalid block. */
-function guarded(spec: BlockSpec, run: () => EngineResult, trees: Extract<Evaluated, { ok: true }>['trees'], mass: number): Evaluated {
+function guarded(spec: BlockSpec, run: () => EngineResult, trees: Extract<Evaluated, { ok: true }>['trees'], mass: number, expectationOf: Extract<Evaluated, { ok: true }>['expectationOf']): Evaluated {
   try {
-    return { ok: true, engine: run(), trees, mass };
+    return { ok: true, engine: run(), trees, mass, expectationOf };
   } catch (error) {
     const reason = error instanceof Error ? error.message : String(error);
     return { ok: false, problems: [{ line: spec.line, field: null, message: `the evaluation failed: ${reason}` }] };
@@ -196,6 +287,9 @@ function toBlockResult(file: string, spec: BlockSpec, inputs: BlockInputs, engin
       referenceMs: engine.timings.referenceMs,
     },
     quantity: null,
+    sensitivities: null,
+    uncertainty: null,
+    sweep: null,
     inputHash: hash,
     timeMs: performance.now() - started,
   };

@@ -1,0 +1,43 @@
+import { performance } from 'node:perf_hooks';
+import { g } from '../engine/format.ts';
+import { STATUS_ORDER } from '../engine/status.ts';
+import type { BlockSpec } from '../spec/types.ts';
+import { inputHash } from './input-hash.ts';
+import type { BlockResult } from './result-types.ts';
+
+/**
+ * Evaluates a block at every value of its swept constant, in the order written, each point a full evaluation
+ * warm-started from its neighbour's optimum (the optimum moves little between close values, so the search is short).
+ * The block takes the worst point's status and result, its message naming the point; every point's result is kept.
+ * Points carry sensitivities only when the block has uncertain inputs, whose propagation each point then states.
+ */
+export function evaluateSweep(spec: BlockSpec, evaluatePoint: (point: BlockSpec, withSensitivities: boolean) => BlockResult): BlockResult {
+  const started = performance.now();
+  const sweep = spec.sweep!;
+  const withSensitivities = Object.keys(spec.uncertainties).length > 0;
+  const points: Array<{ value: number; result: BlockResult }> = [];
+  let previous: BlockResult | null = null;
+  for (const value of sweep.values) {
+    const varied = previous ? spec.varied.map((p) => ({ ...p, start: Math.min(p.max, Math.max(p.min, previous!.parameters[p.name]?.value ?? p.start)) })) : spec.varied;
+    const result = evaluatePoint({ ...spec, constants: { ...spec.constants, [sweep.constant]: value }, varied, sweep: null }, withSensitivities);
+    points.push({ value, result });
+    if (result.status !== 'invalid' && result.energy !== null) previous = result;
+  }
+  const rank = (r: BlockResult) => STATUS_ORDER.indexOf(r.status);
+  const worst = points.reduce((w, p, i) => (rank(p.result) < rank(points[w].result) ? i : w), 0);
+  const chosen = points[worst];
+  const unit = spec.quantity?.inputs[sweep.constant];
+  const at = `at ${sweep.constant} = ${g(chosen.value * (unit?.perAtomic ?? 1), 6)}${unit?.unit ? ` ${unit.unit}` : ''}`;
+  return {
+    ...chosen.result,
+    id: spec.id,
+    line: spec.line,
+    caption: spec.caption,
+    message: chosen.result.message === null ? null : `${at} (of ${points.length} points): ${chosen.result.message}`,
+    problems: chosen.result.problems.map((p) => ({ ...p, message: `${at}: ${p.message}` })),
+    // The worst point keeps its plots for the panel; the others' would only weigh down the JSON.
+    sweep: { constant: sweep.constant, unit: null, points: points.map((p, i) => (i === worst ? p : { value: p.value, result: { ...p.result, plots: null } })), worst },
+    inputHash: inputHash(spec),
+    timeMs: performance.now() - started,
+  };
+}
