@@ -37,6 +37,8 @@ const range = rangeFields.superRefine((r, ctx) => {
 /** An input known to within a standard uncertainty (same unit as the value; not negative, checked in parse-block). */
 const uncertainFields = z.object({ value: quantity, uncertainty: quantity }).strict();
 const positiveUncertainFields = z.object({ value: positiveQuantity, uncertainty: quantity }).strict();
+// Not strict: a misspelt range key should be reported against the range form, the usual one for a parameter.
+const uncertainParameter = z.object({ value: quantity, uncertainty: quantity });
 const constantValue = z.union([quantity, uncertainFields], { errorMap: (_issue, ctx) => ({ message: isUncertain(ctx.data) ? 'must be { value, uncertainty } with two numbers' : numberMessage(ctx.data, false) }) });
 
 /** Most points a sweep may have: each is a full evaluation. */
@@ -103,7 +105,7 @@ export const blockSchema = z
     trial: expression.optional(),
     basis: z.array(expression).optional(),
     states: z.number({ invalid_type_error: 'must be a whole number' }).int('must be a whole number').positive('must be 1 or more').max(50, 'at most 50 levels').optional(),
-    parameters: z.record(name, z.union([quantity, range, uncertainFields])).optional(),
+    parameters: z.record(name, z.union([quantity, range, uncertainParameter])).optional(),
     sweep: sweepFields.optional(),
     reference: referenceFields.optional(),
     claim: claimFields.optional(),
