@@ -56,6 +56,8 @@ export interface ProblemBase {
   plots: ReadonlyArray<'scan' | 'density'>;
   /** How check details state values (default: atomic units). */
   display?: ValueDisplay;
+  /** Set for a re-optimisation warm-started at a nearby optimum (sensitivities): the local search only. */
+  localSearch?: boolean;
 }
 
 /** A single trial function with parameters: the variational method proper. */
@@ -110,7 +112,7 @@ export interface FieldTrial {
 }
 
 /** A trial problem on a space of several coordinates (axial, a Cartesian product). */
-export interface FieldProblem extends Pick<ProblemBase, 'parameters' | 'reference' | 'claim' | 'display'> {
+export interface FieldProblem extends Pick<ProblemBase, 'parameters' | 'reference' | 'claim' | 'display' | 'localSearch'> {
   space: FieldSpace;
   potential: PointFunction;
   potentialSwitches: AxisSwitch[];

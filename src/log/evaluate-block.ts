@@ -1,7 +1,7 @@
 import { performance } from 'node:perf_hooks';
 import { evaluateBasisProblem } from '../engine/evaluate-basis.ts';
 import { evaluateProblem, type EngineResult } from '../engine/evaluate-problem.ts';
-import type { FieldProblem, ProblemBase } from '../engine/problem.ts';
+import type { FieldProblem, ParameterSpec, ProblemBase } from '../engine/problem.ts';
 import type { MathNode } from 'mathjs';
 import { evaluateFieldProblem } from '../engine/evaluate-field-problem.ts';
 import { axialSpace } from '../engine/spaces/axial.ts';
@@ -14,6 +14,9 @@ import { fieldExpectationOf, lineExpectationOf, type ExtraExpectation } from '..
 import { ATOMIC_DISPLAY } from '../engine/format.ts';
 import { statusOf } from '../engine/status.ts';
 import type { Compiled } from '../expr/compile.ts';
+import { blockConstants } from '../expr/block-scope.ts';
+import { recompileLinePotential } from '../expr/compile-derivative.ts';
+import { dependsOn } from '../expr/differentiate.ts';
 import { evaluateSweep } from './evaluate-sweep.ts';
 import { inputHash } from './input-hash.ts';
 import { sensitivities } from './sensitivities.ts';
@@ -81,11 +84,17 @@ type Evaluated =
       mass: number;
       /** <f> over the optimum's density by the space's own integrator (f reads the coordinates from its first slots); null for a basis. */
       expectationOf: ((f: Compiled, parameters: number[]) => ExtraExpectation) | null;
+      /**
+       * The variational energy re-optimised (local search from `start`, no grid) with one input changed, reusing the
+       * compiled trial; undefined where only a full recompilation can tell (the input is in the trial or the mass).
+       */
+      reoptimise?: (name: string, value: number, start: ParameterSpec[]) => EngineResult | undefined;
     }
   | { ok: false; problems: Array<{ line: number; field: string | null; message: string }> };
 
-function evaluateSpec(spec: BlockSpec): Evaluated {
-  return isLineSpace(spec.space) ? evaluateLineBlock(spec) : evaluateFieldBlock(spec);
+/** `localSearch`: a re-optimisation warm-started at the block's own optimum, which needs no multistart. */
+function evaluateSpec(spec: BlockSpec, localSearch = false): Evaluated {
+  return isLineSpace(spec.space) ? evaluateLineBlock(spec, localSearch) : evaluateFieldBlock(spec, localSearch);
 }
 
 /** Sensitivities of the evaluated block, each finite difference and re-evaluation a re-optimisation without the grid reference. */
@@ -102,7 +111,9 @@ function blockSensitivities(spec: BlockSpec, evaluated: Extract<Evaluated, { ok:
       claim: null,
       report: { ...spec.report, plots: [] },
     };
-    const again = evaluateSpec(changed);
+    const fast = evaluated.reoptimise?.(name, value, varied);
+    if (fast) return fast.status !== 'invalid' && fast.energy !== null ? fast.energy : null;
+    const again = evaluateSpec(changed, true);
     return again.ok && again.engine.status !== 'invalid' && again.engine.energy !== null ? again.engine.energy : null;
   };
   return sensitivities({
@@ -143,7 +154,7 @@ function withResponseChecks(spec: BlockSpec, engine: EngineResult, response: Ret
 }
 
 /** A block on a space of one coordinate: compiled to functions of x (or r), evaluated by the one-coordinate engine. */
-function evaluateLineBlock(spec: BlockSpec): Evaluated {
+function evaluateLineBlock(spec: BlockSpec, localSearch: boolean): Evaluated {
   const compiled = compileBlock(spec);
   if (!compiled.ok) return { ok: false, problems: compiled.problems };
   const base: ProblemBase = {
@@ -155,15 +166,24 @@ function evaluateLineBlock(spec: BlockSpec): Evaluated {
     potential: compiled.block.potential,
     potentialSwitches: compiled.block.potentialSwitches,
     ...shared(spec),
+    localSearch,
   };
   const { trial, basis } = compiled.block;
   const slot = new Float64Array(1);
   const expectationOf = trial ? (f: Compiled, parameters: number[]) => lineExpectationOf({ ...base, trial }, (x) => ((slot[0] = x), f(slot)), parameters) : null;
-  return guarded(spec, () => (trial ? evaluateProblem({ ...base, trial }) : evaluateBasisProblem({ ...base, basis: basis!, states: spec.states })), compiled.block.trees, compiled.block.mass, expectationOf);
+  const { trees } = compiled.block;
+  const reoptimise = (name: string, value: number, start: ParameterSpec[]): EngineResult | undefined => {
+    if (!trial || trees.mass || dependsOn(trees.trial!, name)) return undefined;
+    const recompiled = recompileLinePotential(trees.potential, trees.coordinate, { ...blockConstants(spec), [name]: value });
+    const variant = { ...base, trial, potential: recompiled.potential, potentialSwitches: recompiled.switches, mass: name === 'mass' ? value : base.mass };
+    return evaluateProblem({ ...variant, parameters: start, reference: { solve: false, published: null }, claim: null, plots: [], localSearch: true });
+  };
+  const evaluated = guarded(spec, () => (trial ? evaluateProblem({ ...base, trial }) : evaluateBasisProblem({ ...base, basis: basis!, states: spec.states })), trees, compiled.block.mass, expectationOf);
+  return evaluated.ok ? { ...evaluated, reoptimise } : evaluated;
 }
 
 /** A block on axial or a product space: compiled to functions of a point, evaluated by product cubature and grid. */
-function evaluateFieldBlock(spec: BlockSpec): Evaluated {
+function evaluateFieldBlock(spec: BlockSpec, localSearch: boolean): Evaluated {
   const compiled = compileFieldBlock(spec);
   if (!compiled.ok) return { ok: false, problems: compiled.problems };
   const { block } = compiled;
@@ -174,7 +194,7 @@ function evaluateFieldBlock(spec: BlockSpec): Evaluated {
     typeof written === 'object'
       ? cartesianSpace(Object.entries(written).map(([name, range]) => ({ name, range, mass: spec.masses?.[name] ?? mass })))
       : axialSpace(spec.angularMomentum, mass);
-  const problem: FieldProblem = { space, potential: block.potential, potentialSwitches: block.potentialSwitches, trial: block.trial, ...shared(spec) };
+  const problem: FieldProblem = { space, potential: block.potential, potentialSwitches: block.potentialSwitches, trial: block.trial, ...shared(spec), localSearch };
   const expectationOf = (f: Compiled, parameters: number[]) => fieldExpectationOf(problem, (point) => f(point), parameters);
   return guarded(spec, () => evaluateFieldProblem(problem), { potential: block.trees.potential, mass: null, trial: block.trees.trial, basis: null }, mass, expectationOf);
 }

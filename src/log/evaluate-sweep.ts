@@ -9,6 +9,8 @@ import type { BlockResult } from './result-types.ts';
  * Evaluates a block at every value of its swept constant, in the order written, each point a full evaluation
  * warm-started from its neighbour's optimum (the optimum moves little between close values, so the search is short).
  * The block takes the worst point's status and result, its message naming the point; every point's result is kept.
+ * Only the first point samples the scan and density plots (the panel draws them for the block's own point); when a
+ * later point is the worst, it is evaluated once more with its plots.
  * Points carry sensitivities only when the block has uncertain inputs, whose propagation each point then states.
  */
 export function evaluateSweep(spec: BlockSpec, evaluatePoint: (point: BlockSpec, withSensitivities: boolean) => BlockResult): BlockResult {
@@ -17,15 +19,23 @@ export function evaluateSweep(spec: BlockSpec, evaluatePoint: (point: BlockSpec,
   const withSensitivities = Object.keys(spec.uncertainties).length > 0;
   const points: Array<{ value: number; result: BlockResult }> = [];
   let previous: BlockResult | null = null;
+  const pointSpec = (value: number, varied: BlockSpec['varied'], plots: boolean): BlockSpec => ({
+    ...spec,
+    constants: { ...spec.constants, [sweep.constant]: value },
+    varied,
+    sweep: null,
+    report: plots ? spec.report : { ...spec.report, plots: [] },
+  });
+  const warm = (from: BlockResult) => spec.varied.map((p) => ({ ...p, start: Math.min(p.max, Math.max(p.min, from.parameters[p.name]?.value ?? p.start)) }));
   for (const value of sweep.values) {
-    const varied = previous ? spec.varied.map((p) => ({ ...p, start: Math.min(p.max, Math.max(p.min, previous!.parameters[p.name]?.value ?? p.start)) })) : spec.varied;
-    const result = evaluatePoint({ ...spec, constants: { ...spec.constants, [sweep.constant]: value }, varied, sweep: null }, withSensitivities);
+    const result = evaluatePoint(pointSpec(value, previous ? warm(previous) : spec.varied, points.length === 0), withSensitivities);
     points.push({ value, result });
     if (result.status !== 'invalid' && result.energy !== null) previous = result;
   }
   const rank = (r: BlockResult) => STATUS_ORDER.indexOf(r.status);
   const worst = points.reduce((w, p, i) => (rank(p.result) < rank(points[w].result) ? i : w), 0);
-  const chosen = points[worst];
+  const { value: worstValue, result: worstResult } = points[worst];
+  const chosen = worst === 0 || worstResult.energy === null ? points[worst] : { value: worstValue, result: evaluatePoint(pointSpec(worstValue, warm(worstResult), true), withSensitivities) };
   const unit = spec.quantity?.inputs[sweep.constant];
   const at = `at ${sweep.constant} = ${g(chosen.value * (unit?.perAtomic ?? 1), 6)}${unit?.unit ? ` ${unit.unit}` : ''}`;
   return {
@@ -35,8 +45,8 @@ export function evaluateSweep(spec: BlockSpec, evaluatePoint: (point: BlockSpec,
     caption: spec.caption,
     message: chosen.result.message === null ? null : `${at} (of ${points.length} points): ${chosen.result.message}`,
     problems: chosen.result.problems.map((p) => ({ ...p, message: `${at}: ${p.message}` })),
-    // The worst point keeps its plots for the panel; the others' would only weigh down the JSON.
-    sweep: { constant: sweep.constant, unit: null, points: points.map((p, i) => (i === worst ? p : { value: p.value, result: { ...p.result, plots: null } })), worst },
+    // The plots are the block's (above); in the points they would only weigh down the JSON.
+    sweep: { constant: sweep.constant, unit: null, points: points.map((p) => ({ value: p.value, result: { ...p.result, plots: null } })), worst },
     inputHash: inputHash(spec),
     timeMs: performance.now() - started,
   };

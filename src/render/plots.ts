@@ -10,7 +10,7 @@ const { document } = parseHTML('<!doctype html><html><body></body></html>');
 const WIDTH = 430;
 const HEIGHT = 270;
 // Black and white print: marks differ by line style and symbol, never by colour alone.
-const INK = '#111';
+export const INK = '#111';
 const STYLE = { fontSize: '11px', background: 'white', color: INK, overflow: 'visible' };
 
 export interface PlotUnits {
@@ -109,7 +109,7 @@ function levelPlot(result: BlockResult, units: PlotUnits): string {
   );
 }
 
-function draw(options: Plot.PlotOptions, caption: string): string {
+export function draw(options: Plot.PlotOptions, caption: string): string {
   const figure = Plot.plot({ document, width: WIDTH, height: HEIGHT, marginLeft: 58, marginRight: 16, style: STYLE, caption, ...options }) as unknown as { outerHTML: string };
   return figure.outerHTML;
 }
