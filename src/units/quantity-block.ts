@@ -192,7 +192,8 @@ export function convertQuantityBlock(file: string, block: QuantityBlockSource): 
     energy: { unit: reportEnergy.name, perHartree: 1 / reportEnergy.hartrees, definition: reportEnergy.definition },
     length: { unit: lengthUnit.text, perBohr: 1 / lengthUnit.atomic },
     parameters: parameterUnits,
-    inputs: Object.fromEntries(Object.entries(readings).map(([name, q]) => [name, displayUnit(q.dimension, [q])])),
+    // As written: a zero ("0 kV/cm") has no dimension of its own, but its unit still says how to state the input.
+    inputs: Object.fromEntries(Object.entries(readings).map(([name, q]) => [name, q.unit ? { unit: q.unit.text || null, perAtomic: 1 / q.unit.atomic } : displayUnit(q.dimension, [q])])),
   };
   const constantsUsed = [...reader.relied].map(constantUse);
   return {
