@@ -136,3 +136,35 @@ describe('the quadratic Stark shift of a well, from a sweep at small F', () => {
     expect(c2From((r) => r.energy!.value) / c2).toBeCloseTo(1, 3);
   });
 });
+
+// Hydrogen in a field F along z: E(F) = -1/2 - alpha F^2/2 + O(F^4) with the static dipole polarisability alpha = 9/2
+// bohr^3 (exact: Dalgarno & Lewis, Proc. R. Soc. A 233, 70 (1955), whose first-order state is
+// psi1 = -F z (1 + r/2) psi0). The trial psi0 (1 + b z (1 + r/2)) contains it, so by the 2n + 1 rule its optimum gets the
+// F^2 term exactly; the F^4 term (hyperpolarisability) is removed by Richardson's combination of two fields.
+describe('the hydrogen static polarisability from a field sweep on the axial space', () => {
+  it('is 9/2', { timeout: 240_000 }, () => {
+    const result = evaluate(
+      'id: h-field\nspace: axial\nconstants:\n  F: 0\npotential: -1/sqrt(rho^2 + z^2) + F*z\ntrial: exp(-sqrt(rho^2 + z^2))*(1 + b*z*(1 + sqrt(rho^2 + z^2)/2))\nparameters:\n  b: { start: 0, min: -1, max: 1 }\nreference: { solve: false }\nsweep: { constant: F, values: [0, 0.01, 0.02] }\n',
+    );
+    expect(result.status, result.message ?? '').toBe('confirmed');
+    const [e0, e1, e2] = result.sweep!.points.map((p) => p.result.energy!.value);
+    expect(e0).toBeCloseTo(-0.5, 9);
+    // E(F) is even in F: s(F) = (E(F) - E(0)) / F^2 = -alpha/2 + c4 F^2.
+    const s = (e: number, F: number) => (e - e0) / F ** 2;
+    const alpha = -2 * ((4 * s(e1, 0.01) - s(e2, 0.02)) / 3);
+    expect(alpha).toBeCloseTo(4.5, 4);
+    // The optimum follows the first-order state: b = -F.
+    expect(result.sweep!.points[1].result.parameters.b.value).toBeCloseTo(-0.01, 4);
+  });
+
+  it('gives dE/dF = <z> = -alpha F by Hellmann–Feynman with the product cubature, as the re-optimised difference does', { timeout: 240_000 }, () => {
+    const F = 0.01;
+    const result = evaluate(
+      `id: h-slope\nspace: axial\nconstants:\n  F: ${F}\npotential: -1/sqrt(rho^2 + z^2) + F*z\ntrial: exp(-sqrt(rho^2 + z^2))*(1 + b*z*(1 + sqrt(rho^2 + z^2)/2))\nparameters:\n  b: { start: 0, min: -1, max: 1 }\nreference: { solve: false }\n`,
+    );
+    const slope = sensitivity(result, 'F');
+    // -alpha F - (gamma/6) F^3 with gamma = 1333 (the F^3 part is 5e-3 of the first here).
+    expect(slope.hellmannFeynman! / (-4.5 * F)).toBeCloseTo(1, 2);
+    expect(slope.agrees).toBe(true);
+  });
+});
