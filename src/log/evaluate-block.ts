@@ -26,15 +26,18 @@ import type { BlockInputs, BlockResult } from './result-types.ts';
 
 const ENERGY_UNIT = 'hartree';
 
-/** Evaluates one block of a record; whatever goes wrong becomes an `invalid` result, never an exception. */
-export function evaluateBlock(file: string, entry: BlockEntry): BlockResult {
+/**
+ * Evaluates one block of a record; whatever goes wrong becomes an `invalid` result, never an exception. For a sweep,
+ * `knownPoints` are points already computed (see sweepPointEntries), in order, null where a point is new.
+ */
+export function evaluateBlock(file: string, entry: BlockEntry, knownPoints?: ReadonlyArray<BlockResult | null>): BlockResult {
   const started = performance.now();
   if (entry.kind === 'invalid') {
     return unparsedBlock(entry, started);
   }
   const { spec } = entry;
-  const result = spec.sweep ? evaluateSweep(spec, (point, withSensitivities) => evaluateAtomic(file, point, withSensitivities)) : evaluateAtomic(file, spec, true);
-  return spec.quantity ? inBlockUnits(result, spec.quantity) : result;
+  const stated = (result: BlockResult) => (spec.quantity ? inBlockUnits(result, spec.quantity) : result);
+  return spec.sweep ? evaluateSweep(spec, (point, withSensitivities) => stated(evaluateAtomic(file, point, withSensitivities)), knownPoints) : stated(evaluateAtomic(file, spec, true));
 }
 
 /** One evaluation in atomic units, with the sensitivities and propagated uncertainty when asked for. */

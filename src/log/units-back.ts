@@ -73,11 +73,6 @@ export function inBlockUnits(result: BlockResult, units: QuantityMode): BlockRes
       uncertainty: result.uncertainty.uncertainty * E,
       reevaluated: maybe(result.uncertainty.reevaluated),
     },
-    sweep: result.sweep && {
-      ...result.sweep,
-      unit: units.inputs[result.sweep.constant]?.unit ?? null,
-      points: result.sweep.points.map((p) => ({ value: p.value * (units.inputs[result.sweep!.constant]?.perAtomic ?? 1), result: inBlockUnits(p.result, units) })),
-    },
     quantity: units,
   };
 }
