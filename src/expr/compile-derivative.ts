@@ -5,7 +5,6 @@ import { switchFunctions } from './switch-points.ts';
 
 /** d(tree)/d(name) compiled as a function of the coordinates, read from the first slots of the array it is given. */
 export interface CompiledDerivative {
-  tree: MathNode;
   /** Takes the coordinates in point order (a point of a field space, or a one-slot array on a line). */
   at: Compiled;
 }
@@ -18,7 +17,7 @@ export interface CompiledDerivative {
 export function compileDerivative(tree: MathNode, name: string, coordinates: string[], constants: Readonly<Record<string, number>>): CompiledDerivative | null {
   if (!dependsOn(tree, name)) return null;
   const derivative = differentiate(tree, name);
-  return { tree: derivative, at: compileOnCoordinates(derivative, coordinates, constants) };
+  return { at: compileOnCoordinates(derivative, coordinates, constants) };
 }
 
 /** A checked tree compiled over its coordinates alone (slots 0, 1, ...), every other name a constant. */

@@ -124,15 +124,15 @@ function blockSensitivities(spec: BlockSpec, evaluated: Extract<Evaluated, { ok:
     energy: engine.energy!,
     energyError: engine.energyError ?? 0,
     kinetic: engine.components?.kinetic ?? null,
-    optimum,
     trees: { potential: trees.potential, states: trees.trial ? [trees.trial] : (trees.basis ?? []), mass: trees.mass },
     expectationOf: evaluated.expectationOf && ((f) => evaluated.expectationOf!(f, optimum)),
     energyAt,
+    checkEvery: isLineSpace(spec.space),
   });
 }
 
 /** The spec with one constant, fixed parameter or the mass set to another value. */
-export function withInput(spec: BlockSpec, name: string, value: number): BlockSpec {
+function withInput(spec: BlockSpec, name: string, value: number): BlockSpec {
   if (name === 'mass') return { ...spec, mass: value };
   if (Object.hasOwn(spec.fixed, name)) return { ...spec, fixed: { ...spec.fixed, [name]: value } };
   return { ...spec, constants: { ...spec.constants, [name]: value } };

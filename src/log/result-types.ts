@@ -84,7 +84,7 @@ export interface BlockResult {
   } | null;
   /** Quantity mode: the units the numbers above are stated in and the physical constants behind them; null in atomic units. */
   quantity: QuantityMode | null;
-  /** dE/dc for every declared constant, fixed parameter and the constant mass; null for an invalid block or a sweep. */
+  /** dE/dc for every declared constant, uncertain fixed parameter and the constant mass; null for an invalid block or a sweep. */
   sensitivities: Sensitivity[] | null;
   /** E +- dE propagated from the inputs that carry an uncertainty; null when none does. */
   uncertainty: UncertaintyResult | null;
@@ -103,7 +103,7 @@ export interface Sensitivity {
   unit: string | null;
   /** dE/dc = <dH/dc> at the optimum (Hellmann–Feynman); null where it does not apply (see note). */
   hellmannFeynman: number | null;
-  /** (E(c + h) - E(c - h)) / 2h from re-optimised energies; null when those evaluations failed. */
+  /** (E(c + h) - E(c - h)) / 2h from re-optimised energies; null when those evaluations failed or were not made (see sensitivities.ts). */
   finiteDifference: number | null;
   step: number;
   /** Whether the two agree (to 1e-3 and the difference's noise); null when one is missing. */

@@ -15,13 +15,16 @@ export interface SensitivityInputs {
   energy: number;
   energyError: number;
   kinetic: number | null;
-  /** The optimum of the varied parameters, in order. */
-  optimum: number[];
   trees: { potential: MathNode; states: MathNode[]; mass: MathNode | null };
   /** <f> over the optimum's density by the space's own integrator; null for a basis block (its levels mix functions). */
   expectationOf: ((f: Compiled) => ExtraExpectation) | null;
   /** The block re-optimised with one input changed (variational part only); null where that evaluation fails. */
   energyAt: (name: string, value: number) => number | null;
+  /**
+   * Whether every sensitivity gets its finite-difference check. On spaces of several coordinates a re-optimisation
+   * costs about as much as the block, so there only the uncertain inputs (re-evaluated at c +- u anyway) get one.
+   */
+  checkEvery: boolean;
 }
 
 /** A central difference this fraction of the input (or of one atomic unit, for an input of 0) wide. */
@@ -32,7 +35,7 @@ const AGREEMENT = 1e-3;
 const LINEARITY = 0.1;
 
 /**
- * dE/dc for every declared constant, fixed parameter and the constant mass: at the optimum by the Hellmann–Feynman
+ * dE/dc for every declared constant, uncertain fixed parameter and the constant mass: at the optimum by the Hellmann–Feynman
  * theorem, dE/dc = <dH/dc> (Feynman, Phys. Rev. 56, 340 (1939); it holds at a variational optimum of a trial that does
  * not itself use c, by the envelope theorem), dH/dc the symbolic derivative of the potential and, for the mass,
  * d<T>/dm = -<T>/m; each checked against a central difference of re-optimised energies. Inputs with an uncertainty
@@ -43,7 +46,8 @@ export function sensitivities(inputs: SensitivityInputs): { sensitivities: Sensi
   const bound = new Set(spec.quantity?.bound ?? []);
   const names: Array<[string, number]> = [
     ...Object.entries(spec.constants).filter(([name]) => !bound.has(name)),
-    ...Object.entries(spec.fixed),
+    // A fixed parameter is usually a value held at an optimum found elsewhere; it counts as an input when uncertain.
+    ...Object.entries(spec.fixed).filter(([name]) => Object.hasOwn(spec.uncertainties, name)),
     // A mass per coordinate, or one that depends on the coordinate, has no single value to vary.
     ...(typeof spec.mass === 'number' && spec.masses === null ? [['mass', spec.mass] as [string, number]] : []),
   ];
@@ -83,8 +87,9 @@ function sensitivity(inputs: SensitivityInputs, name: string, value: number): Se
   }
 
   const step = RELATIVE_STEP * (value === 0 ? 1 : Math.abs(value));
-  const plus = inputs.energyAt(name, value + step);
-  const minus = inputs.energyAt(name, value - step);
+  const checked = inputs.checkEvery || uncertainty !== null || hellmannFeynman === null;
+  const plus = checked ? inputs.energyAt(name, value + step) : null;
+  const minus = checked ? inputs.energyAt(name, value - step) : null;
   const finiteDifference = plus === null || minus === null ? null : (plus - minus) / (2 * step);
   // Each re-optimised energy is settled to about the quadrature's estimate and the search's tolerance.
   const noise = (10 * inputs.energyError + 1e-9 * Math.max(1, Math.abs(inputs.energy))) / step;

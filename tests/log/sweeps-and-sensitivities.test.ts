@@ -157,10 +157,10 @@ describe('the hydrogen static polarisability from a field sweep on the axial spa
     expect(result.sweep!.points[1].result.parameters.b.value).toBeCloseTo(-0.01, 4);
   });
 
-  it('gives dE/dF = <z> = -alpha F by Hellmann–Feynman with the product cubature, as the re-optimised difference does', { timeout: 240_000 }, () => {
+  it('gives dE/dF = <z> = -alpha F by Hellmann–Feynman with the product cubature, as the re-optimised difference does for an uncertain F', { timeout: 240_000 }, () => {
     const F = 0.01;
     const result = evaluate(
-      `id: h-slope\nspace: axial\nconstants:\n  F: ${F}\npotential: -1/sqrt(rho^2 + z^2) + F*z\ntrial: exp(-sqrt(rho^2 + z^2))*(1 + b*z*(1 + sqrt(rho^2 + z^2)/2))\nparameters:\n  b: { start: 0, min: -1, max: 1 }\nreference: { solve: false }\n`,
+      `id: h-slope\nspace: axial\nconstants:\n  F: { value: ${F}, uncertainty: 0.001 }\npotential: -1/sqrt(rho^2 + z^2) + F*z\ntrial: exp(-sqrt(rho^2 + z^2))*(1 + b*z*(1 + sqrt(rho^2 + z^2)/2))\nparameters:\n  b: { start: 0, min: -1, max: 1 }\nreference: { solve: false }\n`,
     );
     const slope = sensitivity(result, 'F');
     // -alpha F - (gamma/6) F^3 with gamma = 1333 (the F^3 part is 5e-3 of the first here).
