@@ -12,7 +12,7 @@ import { coordinatesOf, isLineSpace, type BlockEntry, type BlockSpec, type LineS
 import { claimChecks } from '../engine/checks.ts';
 import { fieldExpectationOf, lineExpectationOf, type ExtraExpectation } from '../engine/expectation-of.ts';
 import { ATOMIC_DISPLAY } from '../engine/format.ts';
-import { statusOf } from '../engine/status.ts';
+import { gradedCheck, statusOf } from '../engine/status.ts';
 import type { Compiled } from '../expr/compile.ts';
 import { blockConstants } from '../expr/block-scope.ts';
 import { recompileLinePotential } from '../expr/compile-derivative.ts';
@@ -51,7 +51,7 @@ function evaluateAtomic(file: string, spec: BlockSpec, withSensitivities: boolea
   }
   const { trees, mass } = evaluated;
   const sensitivityStarted = performance.now();
-  const response = withSensitivities && evaluated.engine.energy !== null && evaluated.engine.status !== 'invalid' ? blockSensitivities(spec, evaluated) : null;
+  const response = withSensitivities && evaluated.engine.energy !== null && evaluated.engine.status !== 'invalid' ? guardedSensitivities(spec, evaluated) : null;
   const sensitivityMs = performance.now() - sensitivityStarted;
   const engine = response ? withResponseChecks(spec, evaluated.engine, response) : evaluated.engine;
   const inputs: BlockInputs = {
@@ -129,6 +129,16 @@ function blockSensitivities(spec: BlockSpec, evaluated: Extract<Evaluated, { ok:
     energyAt,
     checkEvery: isLineSpace(spec.space),
   });
+}
+
+/** The sensitivities, with an exception (a bug, never bad input) turned into a failed check rather than thrown. */
+function guardedSensitivities(spec: BlockSpec, evaluated: Extract<Evaluated, { ok: true }>): ReturnType<typeof sensitivities> {
+  try {
+    return blockSensitivities(spec, evaluated);
+  } catch (error) {
+    const reason = error instanceof Error ? error.message : String(error);
+    return { sensitivities: [], uncertainty: null, checks: [gradedCheck('sensitivities', false, `the sensitivities failed: ${reason}`, 'unsettled')] };
+  }
 }
 
 /** The spec with one constant, fixed parameter or the mass set to another value. */
