@@ -56,6 +56,8 @@ export interface ProblemBase {
   plots: ReadonlyArray<'scan' | 'density'>;
   /** How check details state values (default: atomic units). */
   display?: ValueDisplay;
+  /** The level a single trial approximates, when the block declares it (`symmetry`, `level`); default the ground level. */
+  level?: { symmetry: 'even' | 'odd' | null; index: number };
   /** Set for a re-optimisation warm-started at a nearby optimum (sensitivities): the local search only. */
   localSearch?: boolean;
 }
