@@ -6,6 +6,7 @@ import { parseRecord } from '../src/spec/parse-record.ts';
 import { closureNanoseconds } from './closure-floor.ts';
 import { benchSyntheticLog } from './log200.ts';
 import { benchReview } from './review.ts';
+import { benchSweeps } from './sweeps.ts';
 import { benchStartup } from './startup.ts';
 
 /**
@@ -59,5 +60,7 @@ for (const file of records) {
   }
 }
 const { startupMs, cachedOneFileMs } = await benchStartup(records[0]);
+const sweeps = benchSweeps();
 const log200 = problemsOnly ? null : await benchSyntheticLog(200);
-process.stdout.write(JSON.stringify({ node: process.version, cores: os.availableParallelism(), startupMs, cachedOneFileMs, problems, log200 }, null, 2) + '\n');
+const review200 = problemsOnly ? null : await benchReview(200);
+process.stdout.write(JSON.stringify({ node: process.version, cores: os.availableParallelism(), startupMs, cachedOneFileMs, problems, sweeps, log200, review200 }, null, 2) + '\n');

@@ -40,7 +40,7 @@ export function evaluateFieldProblem(problem: FieldProblem): EngineResult {
       const point = atPoint(p);
       counted(point);
       return point.energy;
-    }, problem.parameters);
+    }, problem.parameters, { local: problem.localSearch });
     best = Array.from(optimiser.x);
   }
   problem.trial.setParameters(best);

@@ -89,7 +89,7 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
   let best = start;
   if (problem.parameters.length > 0) {
     const atPoint = searchExpectation(problem, domain, potentialBreaks, atStart);
-    optimiser = minimizeBounded((p) => counted(atPoint(p), counts).energy, problem.parameters);
+    optimiser = minimizeBounded((p) => counted(atPoint(p), counts).energy, problem.parameters, { local: problem.localSearch });
     best = Array.from(optimiser.x);
   }
   const optimum = evaluate(problem, domain, potentialBreaks, best, counts);

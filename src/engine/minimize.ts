@@ -15,6 +15,11 @@ export interface MinimizeOptions {
   /** Relative spread at which Nelder–Mead hands over to the Newton polish (n >= 2); at most fTol makes the simplex go all the way. */
   searchFTol?: number;
   maxEvaluations?: number;
+  /**
+   * The start is known to lie in the lowest basin (a warm start from the optimum of a nearby problem): the local
+   * search alone, without the multistart that guards an author's start.
+   */
+  local?: boolean;
 }
 
 export interface MinimizeResult {
@@ -512,7 +517,7 @@ export function minimizeBounded(
   }
   const start = Float64Array.from(ranges, (r) => r.start);
   const first = localNelderMead(objective, ranges, settings, start);
-  if (!Number.isFinite(first.value) || objective.exhausted) return { ...first, starts: 1 };
+  if (!Number.isFinite(first.value) || objective.exhausted || options.local) return { ...first, starts: 1 };
   // Multistart (Rinnooy Kan & Timmer, Math. Program. 39, 27 (1987)): a local search from the author's start can stop in
   // a basin that is not the lowest. The best of a few quasi-random points away from the first optimum starts a coarse
   // second search; only if that ends lower is it polished and taken.

@@ -59,6 +59,8 @@ export interface ProblemBase {
   display?: ValueDisplay;
   /** The level a single trial approximates, when the block declares it (`symmetry`, `level`); default the ground level. */
   level?: { symmetry: 'even' | 'odd' | null; index: number };
+  /** Set for a re-optimisation warm-started at a nearby optimum (sensitivities): the local search only. */
+  localSearch?: boolean;
 }
 
 /** A single trial function with parameters: the variational method proper. */
@@ -113,7 +115,7 @@ export interface FieldTrial {
 }
 
 /** A trial problem on a space of several coordinates (axial, a Cartesian product). */
-export interface FieldProblem extends Pick<ProblemBase, 'parameters' | 'reference' | 'claim' | 'display'> {
+export interface FieldProblem extends Pick<ProblemBase, 'parameters' | 'reference' | 'claim' | 'display' | 'localSearch'> {
   space: FieldSpace;
   potential: PointFunction;
   potentialSwitches: AxisSwitch[];

@@ -7,6 +7,7 @@ import { invalidBlock, unparsedBlock } from './invalid-block.ts';
 import { loadLogConfig, type LogConfig } from './log-config.ts';
 import { readRecordText, recordResult, type RecordText } from './record-text.ts';
 import { openResultCache, type SpecEntry } from './result-cache.ts';
+import { sweepPointEntries } from './evaluate-sweep.ts';
 import type { BlockResult, LogResult, RecordResult } from './result-types.ts';
 import type { RecordSpec } from '../spec/types.ts';
 import { toolModule } from './tool-root.ts';
@@ -135,9 +136,14 @@ export async function checkLog(files: Array<string | RecordSource>, options: Che
     try {
       await Promise.all(
         misses.map(async ({ record, block, file, entry }) => {
-          const outcome = await pool.run({ file, entry });
-          if (outcome.kind === 'done') results[record][block] = cache.put(entry, outcome.value);
-          else {
+          // A sweep's points are stored one by one as well, so that a changed sweep evaluates only its new points.
+          const points = entry.spec.sweep ? sweepPointEntries(entry) : null;
+          const knownPoints = points && !options.recompute ? points.map((point) => cache.peek(file, point)) : undefined;
+          const outcome = await pool.run({ file, entry, knownPoints });
+          if (outcome.kind === 'done') {
+            results[record][block] = cache.put(entry, outcome.value);
+            outcome.value.sweep?.points.forEach((p, i) => points?.[i] && cache.put(points[i], p.result));
+          } else {
             if (outcome.kind === 'timed-out') timedOut++;
             if (outcome.kind === 'out-of-memory') overMemory++;
             results[record][block] = unfinishedBlock(file, entry, outcome);

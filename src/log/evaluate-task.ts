@@ -6,9 +6,11 @@ import type { BlockResult } from './result-types.ts';
 export interface BlockTask {
   file: string;
   entry: BlockEntry;
+  /** A sweep's points found in the cache, in order, null where a point is new. */
+  knownPoints?: Array<BlockResult | null>;
 }
 
 /** The pool's task module for blocks (see worker-pool.ts): evaluates one block in the worker. */
-export default function evaluateTask({ file, entry }: BlockTask): BlockResult {
-  return evaluateBlock(file, entry);
+export default function evaluateTask({ file, entry, knownPoints }: BlockTask): BlockResult {
+  return evaluateBlock(file, entry, knownPoints);
 }

@@ -32,6 +32,8 @@ export interface ResultCache {
   readonly stats: CacheStats;
   /** The stored result for this block, placed at the block's current file and line; null on a miss. */
   get(file: string, entry: BlockEntry): BlockResult | null;
+  /** The same for a part of a block (a sweep point), not counted as a block's hit or miss. */
+  peek(file: string, entry: BlockEntry): BlockResult | null;
   /** Stores a result and returns it as a later `get` will: plain JSON data. */
   put(entry: BlockEntry, result: BlockResult): BlockResult;
   /** The file a block's result is kept in. */
@@ -146,15 +148,16 @@ export function openResultCache(root: string): ResultCache {
     }
   };
 
-  const get = (file: string, entry: BlockEntry): BlockResult | null => {
+  const peek = (file: string, entry: BlockEntry): BlockResult | null => {
     const key = cacheKey(entry, evaluator);
     const stored = read<BlockResult>(pathOf(key), key);
-    if (stored === null || stored === 'missing') {
-      stats.misses++;
-      return null;
-    }
-    stats.hits++;
-    return rebaseResult(stored, file, lineOf(entry));
+    return stored === null || stored === 'missing' ? null : rebaseResult(stored, file, lineOf(entry));
+  };
+  const get = (file: string, entry: BlockEntry): BlockResult | null => {
+    const found = peek(file, entry);
+    if (found) stats.hits++;
+    else stats.misses++;
+    return found;
   };
 
   const put = (entry: BlockEntry, result: BlockResult): BlockResult => {
@@ -187,7 +190,7 @@ export function openResultCache(root: string): ResultCache {
     write<RecordIndex>(indexPathOf(key), key, { title: spec.frontMatter.title, frontMatter: spec.frontMatter, problems: spec.problems, blocks });
   };
 
-  return { folder, stats, get, put, getRecord, putRecord, entryPath: (entry) => pathOf(cacheKey(entry, evaluator)) };
+  return { folder, stats, get, peek, put, getRecord, putRecord, entryPath: (entry) => pathOf(cacheKey(entry, evaluator)) };
 }
 
 /** The payload in an entry file, or null when the file is not exactly what `write` wrote for this key. */

@@ -107,15 +107,69 @@ export interface BlockResult {
     plotEvaluations: number;
     variationalMs: number;
     referenceMs: number;
+    /** The sensitivities' share of the block's time (their re-optimisations included); 0 when not computed. */
+    sensitivityMs?: number;
   } | null;
   /** Quantity mode: the units the numbers above are stated in and the physical constants behind them; null in atomic units. */
   quantity: QuantityMode | null;
   /** What the block's Hamiltonian is, for finding the other blocks on the same system; null when its expressions did not compile. */
   hamiltonian: Hamiltonian | null;
+  /** dE/dc for every declared constant, uncertain fixed parameter and the constant mass; null for an invalid block or a sweep. */
+  sensitivities: Sensitivity[] | null;
+  /** E +- dE propagated from the inputs that carry an uncertainty; null when none does. */
+  uncertainty: UncertaintyResult | null;
+  /** `sweep`: every point's result; the fields above are then those of the worst point (the first of equals). */
+  sweep: SweepResult | null;
   inputHash: string;
   timeMs: number;
   /** The reviewer's summary derived from the fields above (block-verdict.ts); present in JSON output, not in the cache. */
   verdict?: Verdict;
+}
+
+/** The energy's response to one input (energies per unit of the input, in the block's units). */
+export interface Sensitivity {
+  /** A constant, a fixed parameter, or `mass`. */
+  name: string;
+  value: number;
+  /** The input's unit (quantity mode), null in atomic units. */
+  unit: string | null;
+  /** dE/dc = <dH/dc> at the optimum (Hellmann–Feynman); null where it does not apply (see note). */
+  hellmannFeynman: number | null;
+  /** (E(c + h) - E(c - h)) / 2h from re-optimised energies; null when those evaluations failed or were not made (see sensitivities.ts). */
+  finiteDifference: number | null;
+  step: number;
+  /** Whether the two agree (to 1e-3 and the difference's noise); null when one is missing. */
+  agrees: boolean | null;
+  note: string | null;
+  /** The input's standard uncertainty, or null when it carries none. */
+  uncertainty: number | null;
+  /** |dE/dc| * uncertainty: the input's part of the propagated uncertainty. */
+  contribution: number | null;
+  /** (E(c + u) - E(c - u)) / 2, re-optimised at both ends. */
+  reevaluated: number | null;
+  /** Whether the re-evaluation agrees with first order to 10%. */
+  linear: boolean | null;
+  /** The unit dE/dc is stated in (energy per input unit); null in atomic units. */
+  perUnit: string | null;
+}
+
+export interface UncertaintyResult {
+  energy: number;
+  /** First-order propagation, inputs uncorrelated: sqrt(sum (dE/dc u_c)^2). */
+  uncertainty: number;
+  /** The same from re-evaluation at c +- u_c; null when a re-evaluation failed. */
+  reevaluated: number | null;
+  linear: boolean;
+  note: string | null;
+}
+
+export interface SweepResult {
+  constant: string;
+  /** The unit the swept values are stated in (quantity mode), null in atomic units. */
+  unit: string | null;
+  points: Array<{ value: number; result: BlockResult }>;
+  /** The index of the point whose status the block takes. */
+  worst: number;
 }
 
 export interface RecordResult {

@@ -1,6 +1,6 @@
 import { g, type ValueDisplay } from '../engine/format.ts';
 import type { QuantityMode, StatedUnit } from '../spec/types.ts';
-import type { BlockResult } from './result-types.ts';
+import type { BlockResult, Sensitivity } from './result-types.ts';
 
 const PURE: StatedUnit = { unit: null, perAtomic: 1 };
 
@@ -121,7 +121,33 @@ export function inBlockUnits(result: BlockResult, units: QuantityMode): BlockRes
       energyError: diagnostics.energyError === null ? null : diagnostics.energyError * Math.abs(E),
       grid: diagnostics.grid && { ...diagnostics.grid, domain: [diagnostics.grid.domain[0] * L, diagnostics.grid.domain[1] * L] },
     },
+    sensitivities: result.sensitivities && result.sensitivities.map((s) => sensitivityInUnits(s, units)),
+    uncertainty: result.uncertainty && {
+      ...result.uncertainty,
+      energy: energy(result.uncertainty.energy),
+      uncertainty: result.uncertainty.uncertainty * E,
+      reevaluated: maybe(result.uncertainty.reevaluated),
+    },
     quantity: units,
+  };
+}
+
+/** dE/dc in the block's energy unit per the input's unit; the input, its step and uncertainty in that unit. */
+function sensitivityInUnits(s: Sensitivity, units: QuantityMode): Sensitivity {
+  const input = units.inputs[s.name] ?? { unit: null, perAtomic: 1 };
+  const E = units.energy.perHartree;
+  const slope = (v: number | null) => (v === null ? null : (v * E) / input.perAtomic);
+  return {
+    ...s,
+    value: s.value * input.perAtomic,
+    unit: input.unit,
+    step: s.step * input.perAtomic,
+    uncertainty: s.uncertainty === null ? null : s.uncertainty * input.perAtomic,
+    hellmannFeynman: slope(s.hellmannFeynman),
+    finiteDifference: slope(s.finiteDifference),
+    contribution: s.contribution === null ? null : s.contribution * E,
+    reevaluated: s.reevaluated === null ? null : s.reevaluated * E,
+    perUnit: input.unit ? `${units.energy.unit}/(${input.unit})` : units.energy.unit,
   };
 }
 

@@ -9,6 +9,7 @@ import type { BlockInputs, BlockResult } from '../log/result-types.ts';
 import { escapeHtml, formatAt, formatNearOne, formatNumber, MINUS, texNumber, typesetMessage, typesetUnit } from './html.ts';
 import { renderPlots } from './plots.ts';
 import { renderSystemLink, type SystemLink } from './review-html.ts';
+import { renderResponse, renderSweep } from './sweep-panel.ts';
 
 const tex = (source: string, display = false) => katex.renderToString(source, { displayMode: display, throwOnError: false, output: 'htmlAndMathml' });
 
@@ -54,6 +55,8 @@ export function renderBlockPanel(result: BlockResult, context: PanelContext): st
   }
   if (result.inputs) parts.push(renderInputs(result));
   if (result.energy) parts.push(renderResults(result, verdict));
+  if (result.sweep) parts.push(renderSweep(result));
+  if (result.sensitivities) parts.push(renderResponse(result));
   const plots = renderPlots(result, {
     energy: result.energy?.unit ?? 'hartree',
     length: result.inputs?.lengthUnit ?? 'bohr',
@@ -262,6 +265,7 @@ function renderAudit(result: BlockResult, context: PanelContext): string {
     if (d.optimiser) items.push(`optimiser ${escapeHtml(d.optimiser.method)}: ${d.optimiser.iterations} iterations, ${d.optimiser.evaluations} evaluations, ${d.optimiser.starts} local search${d.optimiser.starts > 1 ? 'es' : ''}, converged ${d.optimiser.converged}`);
     if (d.grid) items.push(`grid: ${d.grid.size} points, ${d.grid.elements} elements of order ${d.grid.elementOrder}, ${d.grid.refinements} refinements, domain [${formatNumber(d.grid.domain[0], 6)}, ${formatNumber(d.grid.domain[1], 6)}] ${escapeHtml(result.inputs?.lengthUnit ?? 'bohr')}, last change ${d.grid.errorEstimate.map((e) => formatNumber(e, 2)).join(', ')}`);
     if (d.energyError !== null) items.push(`quadrature error estimate of E ${formatNumber(d.energyError, 3)} ${escapeHtml(result.energy?.unit ?? 'hartree')}`);
+    if (d.sensitivityMs) items.push(`sensitivities ${formatNumber(d.sensitivityMs, 3)} ms: Hellmann–Feynman at the optimum, each checked by a central difference of re-optimised energies (grid reference skipped there)`);
   }
   return `<details class="gw-audit"><summary>Audit trail</summary><ul>${items.map((i) => `<li>${i}</li>`).join('')}</ul></details>`;
 }

@@ -13,7 +13,7 @@ const { document } = parseHTML('<!doctype html><html><body></body></html>');
 const WIDTH = 360;
 const HEIGHT = 260;
 // Black and white print: marks differ by line style and symbol, never by colour alone.
-const INK = '#111';
+export const INK = '#111';
 const QUIET = '#555';
 /** Labels drawn over marks keep a white halo, so a curve running under them never makes them unreadable. */
 const HALO = { fill: INK, stroke: 'white', strokeWidth: 4, paintOrder: 'stroke' } as const;

@@ -12,10 +12,8 @@ const expression = z
   .pipe(z.string().min(1, 'must not be empty'));
 
 // In quantity mode a number may carry a unit ("0.067 electronMass"); in atomic units parse-block refuses such text.
-// `{ value, uncertainty }` is written in the record format but not built yet: say so rather than "must be a number".
-const UNCERTAIN = 'uncertain inputs ({ value, uncertainty }) are not supported yet; write the value alone';
 const numberMessage = (data: unknown, positive: boolean) =>
-  data === undefined ? 'is required' : isUncertain(data) ? UNCERTAIN : typeof data !== 'number' ? 'must be a number' : !Number.isFinite(data) ? 'must be a finite number' : positive ? 'must be positive' : 'must be a number';
+  data === undefined ? 'is required' : typeof data !== 'number' ? 'must be a number' : !Number.isFinite(data) ? 'must be a finite number' : positive ? 'must be positive' : 'must be a number';
 function isUncertain(data: unknown): boolean {
   return typeof data === 'object' && data !== null && Object.hasOwn(data, 'uncertainty');
 }
@@ -27,13 +25,36 @@ const positiveQuantity = z.union([finite.positive('must be positive'), quantityT
   errorMap: (_issue, ctx) => ({ message: numberMessage(ctx.data, true) }),
 });
 
-const rangeFields = z.object({ start: quantity, min: quantity, max: quantity }, { invalid_type_error: 'must be a number (held fixed) or { start, min, max } (varied)' }).strict();
+// `uncertainty` is accepted here only to be refused by name (parse-block): the search sets a varied parameter.
+const rangeFields = z.object({ start: quantity, min: quantity, max: quantity, uncertainty: quantity.optional() }, { invalid_type_error: 'must be a number (held fixed) or { start, min, max } (varied)' }).strict();
 const range = rangeFields.superRefine((r, ctx) => {
   // Quantities with units are compared once converted (units/quantity-block.ts).
   if (typeof r.start !== 'number' || typeof r.min !== 'number' || typeof r.max !== 'number') return;
   if (!(r.min < r.max)) ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['max'], message: `max (${r.max}) must be larger than min (${r.min})` });
   else if (r.start < r.min || r.start > r.max) ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['start'], message: `start (${r.start}) must lie within [${r.min}, ${r.max}]` });
 });
+
+/** An input known to within a standard uncertainty (same unit as the value; not negative, checked in parse-block). */
+const uncertainFields = z.object({ value: quantity, uncertainty: quantity }).strict();
+const positiveUncertainFields = z.object({ value: positiveQuantity, uncertainty: quantity }).strict();
+// Not strict: a misspelt range key should be reported against the range form, the usual one for a parameter.
+const uncertainParameter = z.object({ value: quantity, uncertainty: quantity });
+const constantValue = z.union([quantity, uncertainFields], { errorMap: (_issue, ctx) => ({ message: isUncertain(ctx.data) ? 'must be { value, uncertainty } with two numbers' : numberMessage(ctx.data, false) }) });
+
+/** Most points a sweep may have: each is a full evaluation. */
+export const MAX_SWEEP_POINTS = 101;
+const sweepFields = z
+  .object(
+    {
+      constant: z.string({ required_error: 'names the constant to sweep', invalid_type_error: 'must be the name of a declared constant' }),
+      values: z.array(quantity, { invalid_type_error: 'must be a list of values such as [0, 0.01, 0.02]' }).min(1, 'needs at least one value').max(MAX_SWEEP_POINTS, `at most ${MAX_SWEEP_POINTS} points`).optional(),
+      from: quantity.optional(),
+      to: quantity.optional(),
+      points: z.number({ invalid_type_error: 'must be a whole number' }).int('must be a whole number').min(2, 'must be 2 or more').max(MAX_SWEEP_POINTS, `at most ${MAX_SWEEP_POINTS} points`).optional(),
+    },
+    { invalid_type_error: 'must be a map such as { constant: F, values: [0, 0.01] } or { constant: F, from: 0, to: 0.05, points: 11 }' },
+  )
+  .strict();
 
 const claimedFields = z.object({ value: quantity, tolerance: positiveQuantity }).strict();
 const claimedValue = z.union([quantity, claimedFields], {
@@ -74,25 +95,36 @@ export const blockSchema = z
     box: z.tuple([quantity, quantity], { errorMap: () => ({ message: 'must be [a, b] with two numbers' }) }).optional(),
     'angular-momentum': z.number({ invalid_type_error: 'must be a whole number (l = 0, 1, 2, ... on radial; m = 0, +-1, +-2, ... on plane)' }).int('must be an integer').optional(),
     mass: z
-      .union([positiveQuantity, z.record(name, positiveQuantity).refine((masses) => !isUncertain(masses), { message: UNCERTAIN })], {
-        errorMap: (_issue, ctx) => ({ message: typeof ctx.data === 'object' && !isUncertain(ctx.data) ? 'must be a map of positive masses per coordinate' : numberMessage(ctx.data, true) }),
+      .union([positiveQuantity, positiveUncertainFields, z.record(name, positiveQuantity).refine((masses) => !isUncertain(masses))], {
+        errorMap: (_issue, ctx) => ({
+          message: isUncertain(ctx.data) ? 'must be { value, uncertainty } with a positive value' : typeof ctx.data === 'object' ? 'must be a map of positive masses per coordinate' : numberMessage(ctx.data, true),
+        }),
       })
       .optional(),
-    constants: z.record(name, quantity).optional(),
+    constants: z.record(name, constantValue).optional(),
     potential: expression,
     trial: expression.optional(),
     basis: z.array(expression).optional(),
     symmetry: z.enum(['even', 'odd'], { errorMap: () => ({ message: 'must be even or odd' }) }).optional(),
     level: z.number({ invalid_type_error: 'must be a whole number 0, 1, 2, ...' }).int('must be a whole number 0, 1, 2, ...').min(0, 'must be 0 or more').optional(),
     states: z.number({ invalid_type_error: 'must be a whole number' }).int('must be a whole number').positive('must be 1 or more').max(50, 'at most 50 levels').optional(),
-    parameters: z.record(name, z.union([quantity, range])).optional(),
+    parameters: z.record(name, z.union([quantity, range, uncertainParameter])).optional(),
+    sweep: sweepFields.optional(),
     reference: referenceFields.optional(),
     claim: claimFields.optional(),
     report: reportFields.optional(),
   })
   .strict();
 
-export type RawBlock = z.infer<typeof blockSchema>;
+/** A block as written, values with their uncertainties. */
+export type WrittenBlock = z.infer<typeof blockSchema>;
+type Plain = number | QuantityText;
+/** A block once its uncertainties are lifted out (parse-block): every input a plain value or a varied range. */
+export type RawBlock = Omit<WrittenBlock, 'constants' | 'mass' | 'parameters'> & {
+  constants?: Record<string, Plain>;
+  mass?: Plain | Record<string, Plain>;
+  parameters?: Record<string, Plain | { start: Plain; min: Plain; max: Plain }>;
+};
 
 /** The fields a map at this path of a block may hold, for suggesting the one a misspelt key meant. */
 export function knownFields(path: readonly (string | number)[]): string[] {
@@ -102,7 +134,9 @@ export function knownFields(path: readonly (string | number)[]): string[] {
     : path.length === 1 && head === 'reference' ? referenceFields.shape
     : path.length === 1 && head === 'claim' ? claimFields.shape
     : path.length === 1 && head === 'report' ? reportFields.shape
-    : path.length === 2 && head === 'parameters' ? rangeFields.shape
+    : path.length === 1 && head === 'sweep' ? sweepFields.shape
+    : path.length === 2 && head === 'constants' ? uncertainFields.shape
+    : path.length === 2 && head === 'parameters' ? { ...rangeFields.shape, ...uncertainFields.shape }
     : path.length === 3 && head === 'claim' && path[1] === 'parameters' && third !== undefined ? claimedFields.shape
     : {};
   return Object.keys(shape);

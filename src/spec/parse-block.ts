@@ -1,8 +1,8 @@
 import { isScalar, LineCounter, parseDocument, type Document } from 'yaml';
 import type { ZodIssue } from 'zod';
-import { blockSchema, knownFields, RESERVED_NAMES, type QuantityText, type RawBlock } from './block-schema.ts';
+import { blockSchema, knownFields, RESERVED_NAMES, type QuantityText, type RawBlock, type WrittenBlock } from './block-schema.ts';
 import type { FencedBlock } from './find-blocks.ts';
-import { coordinatesOf, isLineSpace, spaceLabel, type BlockEntry, type BlockSpec, type Claimed, type SpecProblem } from './types.ts';
+import { coordinatesOf, evenlySpaced, isLineSpace, spaceLabel, type BlockEntry, type BlockSpec, type Claimed, type SpecProblem } from './types.ts';
 import { didYouMean } from './nearest-name.ts';
 import { writtenPrecision } from './written-precision.ts';
 import { locateYamlError } from './yaml-errors.ts';
@@ -64,14 +64,84 @@ export function parseBlock(file: string, fenced: FencedBlock, index: number): Bl
       }),
     );
   }
-  const raw = parsed.data;
-  const problems = meaningProblems(raw).map(([path, message]) => problem(path, message));
+  const { raw, uncertain } = liftUncertainties(parsed.data);
+  const problems = [...meaningProblems(raw), ...inputProblems(raw, uncertain)].map(([path, message]) => problem(path, message));
   if (problems.length > 0) return invalid(problems);
   if (isQuantityMode(raw)) {
-    const converted = convertQuantityBlock(file, quantitySource(raw, fenced.line, doc, lineOf));
+    const converted = convertQuantityBlock(file, quantitySource(raw, uncertain, fenced.line, doc, lineOf));
     return converted.ok ? { kind: 'spec', spec: converted.spec, source: fenced.text } : invalid(converted.problems);
   }
-  return { kind: 'spec', spec: toSpec(raw as AtomicBlock, fenced.line, doc, lineOf), source: fenced.text };
+  return { kind: 'spec', spec: toSpec(raw as AtomicBlock, uncertain as AtomicUncertain[], fenced.line, doc, lineOf), source: fenced.text };
+}
+
+/** An input written as { value, uncertainty }, the value left in its place. */
+interface Uncertain {
+  /** The constant's or parameter's name, or `mass`. */
+  name: string;
+  /** Where the value was written: the uncertainty is at [...path, 'uncertainty']. */
+  path: Path;
+  uncertainty: number | string;
+  /** On a varied parameter, where it is refused. */
+  varied: boolean;
+}
+type AtomicUncertain = Uncertain & { uncertainty: number };
+
+/** Lifts every uncertainty out of the block, so the rest of the spec layer reads each input as its value alone. */
+function liftUncertainties(written: WrittenBlock): { raw: RawBlock; uncertain: Uncertain[] } {
+  const uncertain: Uncertain[] = [];
+  const lift = <T>(name: string, path: Path, value: T | { value: T; uncertainty: number | string }): T => {
+    if (typeof value !== 'object' || value === null || !('uncertainty' in value)) return value as T;
+    uncertain.push({ name, path, uncertainty: value.uncertainty, varied: false });
+    return value.value;
+  };
+  const constants = written.constants && Object.fromEntries(Object.entries(written.constants).map(([k, v]) => [k, lift(k, ['constants', k], v)]));
+  const mass = typeof written.mass === 'object' && 'uncertainty' in written.mass ? lift('mass', ['mass'], written.mass as { value: number | QuantityText; uncertainty: number | string }) : written.mass;
+  const parameters =
+    written.parameters &&
+    Object.fromEntries(
+      Object.entries(written.parameters).map(([k, v]) => {
+        if (typeof v === 'object' && 'start' in v) {
+          const { uncertainty, ...range } = v;
+          if (uncertainty !== undefined) uncertain.push({ name: k, path: ['parameters', k], uncertainty, varied: true });
+          return [k, range];
+        }
+        return [k, lift(k, ['parameters', k], v)];
+      }),
+    );
+  return { raw: { ...written, constants, mass: mass as RawBlock['mass'], parameters }, uncertain };
+}
+
+/** The rules of uncertainties and sweeps: what may carry an uncertainty, and which constant a sweep may run over. */
+function inputProblems(raw: RawBlock, uncertain: Uncertain[]): Array<[Path, string]> {
+  const found: Array<[Path, string]> = [];
+  const quantityMode = isQuantityMode(raw);
+  for (const u of uncertain) {
+    const at: Path = [...u.path, 'uncertainty'];
+    if (u.varied) found.push([at, `parameter ${u.name} is varied (the search sets it), so it cannot carry an uncertainty; hold it fixed as { value, uncertainty } or declare it under constants`]);
+    else if (typeof u.uncertainty === 'number' && u.uncertainty < 0) found.push([at, `the uncertainty must not be negative (${u.uncertainty}); it is a standard uncertainty, a width`]);
+    else if (typeof u.uncertainty === 'string' && !quantityMode) found.push([at, `must be a number in atomic units; ${JSON.stringify(u.uncertainty)} is text (a quantity with a unit needs quantity mode: units: { length: nm, energy: meV })`]);
+  }
+  const sweep = raw.sweep;
+  if (!sweep) return found;
+  const constants = Object.keys(raw.constants ?? {});
+  if (!constants.includes(sweep.constant)) {
+    const parameter = Object.hasOwn(raw.parameters ?? {}, sweep.constant);
+    found.push([
+      ['sweep', 'constant'],
+      parameter
+        ? `sweep names ${sweep.constant}, a parameter; a sweep runs over a declared constant: move ${sweep.constant} under constants`
+        : `sweep names ${sweep.constant}, which the block does not declare under constants${didYouMean(sweep.constant, constants)}`,
+    ]);
+  }
+  if (uncertain.some((u) => u.name === sweep.constant && u.path[0] === 'constants')) found.push([['sweep', 'constant'], `${sweep.constant} is swept, so it cannot also carry an uncertainty; give its value alone`]);
+  const range = [sweep.from, sweep.to, sweep.points];
+  if (sweep.values !== undefined && range.some((v) => v !== undefined)) found.push([['sweep'], 'give either values: [...] or from, to and points, not both']);
+  else if (sweep.values === undefined && range.some((v) => v === undefined)) found.push([['sweep'], 'needs values: [...], or from, to and points together']);
+  if (!quantityMode) {
+    const texts: Array<[Path, unknown]> = [...(sweep.values ?? []).map((v, i): [Path, unknown] => [['sweep', 'values', i], v]), [['sweep', 'from'], sweep.from], [['sweep', 'to'], sweep.to]];
+    for (const [path, v] of texts) if (typeof v === 'string') found.push([path, `must be a number in atomic units; ${JSON.stringify(v)} is text (a quantity with a unit needs quantity mode: units: { length: nm, energy: meV })`]);
+  }
+  return found;
 }
 
 /** The potential and the trial or basis, each with its line, and how many states a basis reports. */
@@ -121,7 +191,7 @@ type Numeric<T> = T extends QuantityText ? never : T extends object ? { [K in ke
 type AtomicBlock = Omit<Numeric<RawBlock>, 'mass'> & Pick<RawBlock, 'mass'>;
 
 /** The quantity-mode block with every number kept as its written text and line, for the units layer to read. */
-function quantitySource(raw: RawBlock & { units: Record<string, string> }, line: number, doc: Document, lineOf: (path: Path) => number): QuantityBlockSource {
+function quantitySource(raw: RawBlock & { units: Record<string, string> }, uncertain: Uncertain[], line: number, doc: Document, lineOf: (path: Path) => number): QuantityBlockSource {
   const at = (path: Path, value: number | string): QuantitySource => ({ text: scalarSource(doc, path) ?? String(value), line: lineOf(path) });
   const optional = (path: Path, value: number | string | undefined) => (value === undefined ? null : at(path, value));
   const varied: QuantityBlockSource['varied'] = [];
@@ -161,6 +231,15 @@ function quantitySource(raw: RawBlock & { units: Record<string, string> }, line:
       ? { energy: optional(['claim', 'energy'], raw.claim.energy), tolerance: optional(['claim', 'tolerance'], raw.claim.tolerance), parameters: claimParameters }
       : null,
     report: { energyUnit: optional(['report', 'energy-unit'], raw.report?.['energy-unit']), plots: raw.report?.plots ?? ['scan', 'density'] },
+    uncertainties: Object.fromEntries(uncertain.map((u) => [u.name, at([...u.path, 'uncertainty'], u.uncertainty)])),
+    sweep: raw.sweep
+      ? {
+          constant: raw.sweep.constant,
+          line: lineOf(['sweep']),
+          values: raw.sweep.values?.map((v, i) => at(['sweep', 'values', i], v)) ?? null,
+          range: raw.sweep.values ? null : { from: at(['sweep', 'from'], raw.sweep.from!), to: at(['sweep', 'to'], raw.sweep.to!), points: raw.sweep.points! },
+        }
+      : null,
   };
 }
 
@@ -270,7 +349,7 @@ function namesCoordinate(text: string, coordinate: string): boolean {
   return new RegExp(`(^|[^A-Za-z0-9_])${coordinate}([^A-Za-z0-9_]|$)`).test(text);
 }
 
-function toSpec(raw: AtomicBlock, line: number, doc: Document, lineOf: (path: (string | number)[]) => number): BlockSpec {
+function toSpec(raw: AtomicBlock, uncertain: AtomicUncertain[], line: number, doc: Document, lineOf: (path: (string | number)[]) => number): BlockSpec {
   const claimed = (path: (string | number)[], value: number, tolerance?: number, unitFraction: 0.5 | 1 = 0.5): Claimed => ({
     value,
     tolerance: tolerance ?? writtenPrecision(scalarSource(doc, path) ?? String(value), value, unitFraction),
@@ -311,6 +390,8 @@ function toSpec(raw: AtomicBlock, line: number, doc: Document, lineOf: (path: (s
       : null,
     report: { energyUnit: raw.report?.['energy-unit'] ?? null, plots: raw.report?.plots ?? ['scan', 'density'] },
     quantity: null,
+    sweep: raw.sweep ? { constant: raw.sweep.constant, values: raw.sweep.values ?? evenlySpaced(raw.sweep.from!, raw.sweep.to!, raw.sweep.points!), line: lineOf(['sweep']) } : null,
+    uncertainties: Object.fromEntries(uncertain.map((u) => [u.name, u.uncertainty])),
   };
 }
 

@@ -75,9 +75,23 @@ export interface QuantityMode {
   constants: Record<string, StatedUnit>;
   /** The unit the trial's norm integral is stated in. */
   norm: StatedUnit;
+  /** The unit each declared constant, fixed parameter and the mass is stated in, as written (sweeps, sensitivities). */
+  inputs: Record<string, StatedUnit>;
   constantsUsed: Array<{ name: string; value: number; unit: string; source: string }>;
   /** Names in `constants` that are mathjs units or constants bound by the conversion, not declared by the author. */
   bound: string[];
+}
+
+/** `points` values from `from` to `to`, both included (a sweep written as a range). */
+export function evenlySpaced(from: number, to: number, points: number): number[] {
+  return Array.from({ length: points }, (_, i) => (i === points - 1 ? to : from + ((to - from) * i) / (points - 1)));
+}
+
+/** One declared constant evaluated at several values (atomic units), each point a full evaluation. */
+export interface SweepSpec {
+  constant: string;
+  values: number[];
+  line: number;
 }
 
 /**
@@ -136,6 +150,10 @@ export interface BlockSpec {
   };
   /** Set when the block was written in quantity mode; its numbers above are then in atomic units. */
   quantity: QuantityMode | null;
+  /** `sweep`: the block evaluated at every value of one constant; null for a single evaluation. */
+  sweep: SweepSpec | null;
+  /** Standard uncertainties (atomic units, not negative) by constant or fixed-parameter name, or `mass`. */
+  uncertainties: Record<string, number>;
 }
 
 /** A block as found in the record: either a valid spec or the problems that make it invalid. */

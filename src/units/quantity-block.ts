@@ -1,4 +1,4 @@
-import { coordinatesOf, type BlockSpec, type Claimed, type SourceText, type Space, type SpecProblem, type StatedUnit } from '../spec/types.ts';
+import { coordinatesOf, evenlySpaced, type BlockSpec, type Claimed, type SourceText, type Space, type SpecProblem, type StatedUnit } from '../spec/types.ts';
 import { parse } from 'mathjs';
 import { dependsOn } from '../expr/differentiate.ts';
 import type { DimensionScope } from './check-dimensions.ts';
@@ -40,6 +40,9 @@ export interface QuantityBlockSource {
     parameters: Record<string, { value: QuantitySource; tolerance: QuantitySource | null }>;
   } | null;
   report: { energyUnit: QuantitySource | null; plots: BlockSpec['report']['plots'] };
+  /** The uncertainty written beside a constant, a fixed parameter or the mass, read in the value's dimension. */
+  uncertainties?: Record<string, QuantitySource>;
+  sweep?: { constant: string; line: number; values: QuantitySource[] | null; range: { from: QuantitySource; to: QuantitySource; points: number } | null } | null;
 }
 
 /** How to state the engine's atomic-unit numbers in the block's units: value in unit = atomic value * factor. */
@@ -51,6 +54,8 @@ export interface UnitsBack {
   constants: Record<string, StatedUnit>;
   /** The norm integral: |trial|^2 times length (times length^2 on the half-line, r^2 dr). */
   norm: StatedUnit;
+  /** The unit each constant, fixed parameter and the mass is stated in, as written (sweeps, sensitivities, uncertainties). */
+  inputs: Record<string, StatedUnit>;
 }
 
 
@@ -92,10 +97,15 @@ export function convertQuantityBlock(file: string, block: QuantityBlockSource): 
   let mass: BlockSpec['mass'] = 1;
   const coordinate = coordinatesOf(block.space)[0];
   const massProfile = block.mass && dependsOnCoordinate(block.mass.text, coordinate) ? block.mass : null;
+  // Each input as read, so its uncertainty and swept values are read in its dimension and written unit.
+  const readings: Record<string, Reading> = { mass: { atomic: 1, dimension: MASS, unit: ELECTRON_MASS } };
   if (block.mass && !massProfile) {
     const m = reader.quantity('mass', block.mass, MASS, ELECTRON_MASS);
     if (m && !(m.atomic > 0)) reader.complain('mass', block.mass.line, `mass must be positive, not ${block.mass.text}`);
-    else if (m) mass = m.atomic;
+    else if (m) {
+      mass = m.atomic;
+      readings.mass = m;
+    }
   }
 
   const scope: { variables: Record<string, DimensionOrAny>; constants: Record<string, { dimension: DimensionOrAny; atomic: number }> } = {
@@ -113,6 +123,7 @@ export function convertQuantityBlock(file: string, block: QuantityBlockSource): 
       scope.constants[name] = q ? { dimension: q.dimension, atomic: q.atomic } : { dimension: ANY, atomic: Number.NaN };
       if (!q) continue;
       into[name] = q.atomic;
+      readings[name] = q;
       (group === 'parameters' ? parameterUnits : constantUnits)[name] = displayUnit(q.dimension, [q]);
     }
   }
@@ -182,6 +193,9 @@ export function convertQuantityBlock(file: string, block: QuantityBlockSource): 
     claim = { energy, parameters };
   }
 
+  const uncertainties = readUncertainties(reader, block, readings);
+  const sweep = block.sweep ? readSweep(reader, block.sweep, readings[block.sweep.constant]) : null;
+
   if (reader.problems.length > 0 || !lengthUnit || !reportEnergy) return { ok: false, problems: reader.problems };
   const back: UnitsBack = {
     energy: { unit: reportEnergy.name, perHartree: 1 / reportEnergy.hartrees, definition: reportEnergy.definition },
@@ -189,6 +203,8 @@ export function convertQuantityBlock(file: string, block: QuantityBlockSource): 
     parameters: parameterUnits,
     constants: constantUnits,
     norm: normUnit(power(trialDimension, 2), block.space === 'radial' ? 3 : 1, lengthUnit),
+    // As written: a zero ("0 kV/cm") has no dimension of its own, but its unit still says how to state the input.
+    inputs: Object.fromEntries(Object.entries(readings).map(([name, q]) => [name, q.unit ? { unit: q.unit.text || null, perAtomic: 1 / q.unit.atomic } : displayUnit(q.dimension, [q])])),
   };
   const constantsUsed = [...reader.relied].map(constantUse);
   return {
@@ -216,11 +232,41 @@ export function convertQuantityBlock(file: string, block: QuantityBlockSource): 
       claim,
       report: { energyUnit: null, plots: block.report.plots },
       quantity: { ...back, constantsUsed, bound: Object.keys(bound) },
+      sweep,
+      uncertainties,
     },
     back,
     bound,
     constantsUsed,
   };
+}
+
+/** Each uncertainty in the dimension of its value; a bare number is in the unit the value was written in. */
+function readUncertainties(reader: FieldReader, block: QuantityBlockSource, readings: Record<string, Reading>): Record<string, number> {
+  const read: Record<string, number> = {};
+  for (const [name, source] of Object.entries(block.uncertainties ?? {})) {
+    const value = readings[name];
+    // The value itself could not be read and has been complained about.
+    if (!value) continue;
+    const field = `${name === 'mass' ? 'mass' : name in block.constants ? `constants.${name}` : `parameters.${name}`}.uncertainty`;
+    const u = reader.quantity(field, source, value.dimension === ANY ? null : value.dimension, value.unit ?? PURE_NUMBER);
+    if (u && u.atomic < 0) reader.complain(field, source.line, `the uncertainty must not be negative (${source.text}); it is a standard uncertainty, a width`);
+    else if (u) read[name] = u.atomic;
+  }
+  return read;
+}
+
+/** The swept values in atomic units, each read in the constant's dimension; a bare number is in the unit the constant was written in. */
+function readSweep(reader: FieldReader, sweep: NonNullable<QuantityBlockSource['sweep']>, constant: Reading | undefined): BlockSpec['sweep'] {
+  if (!constant) return null;
+  const read = (field: string, source: QuantitySource) => reader.quantity(field, source, constant.dimension === ANY ? null : constant.dimension, constant.unit ?? PURE_NUMBER)?.atomic;
+  if (sweep.values) {
+    const values = sweep.values.map((source, i) => read(`sweep.values.${i}`, source));
+    return values.every((v) => v !== undefined) ? { constant: sweep.constant, values: values as number[], line: sweep.line } : null;
+  }
+  const { from, to, points } = sweep.range!;
+  const [a, b] = [read('sweep.from', from), read('sweep.to', to)];
+  return a !== undefined && b !== undefined ? { constant: sweep.constant, values: evenlySpaced(a, b, points), line: sweep.line } : null;
 }
 
 /** Checks the potential (an energy) and the trial or basis once, before any numerics; returns the mathjs names they use. */

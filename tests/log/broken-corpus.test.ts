@@ -65,8 +65,8 @@ const EXPECTED: Record<string, Expected> = {
   'name-misspelt': { blocks: [invalid('omga-d16', 'unknown name omga: did you mean omega?', on('potential', 'potential: omga'))] },
   // `^` is the power operator of the mathjs syntax (mathjs docs, "Syntax"); `**` is Python's.
   'power-double-star': { blocks: [invalid('stars-d14', 'use ^ for powers', on('potential', 'potential: x**2'))] },
-  // The record format lists { value, uncertainty } as a feature still to come.
-  'uncertain-constant': { blocks: [invalid('uncertain-d17', 'uncertain inputs ({ value, uncertainty }) are not supported yet', on('constants.k', '  k: {'))] },
+  // A standard uncertainty is a width (GUM, JCGM 100:2008, 2.3.1): never negative.
+  'uncertain-constant': { blocks: [invalid('uncertain-d17', 'the uncertainty must not be negative', on('constants.k.uncertainty', '  k: {'))] },
   'unknown-name': { blocks: [invalid('omega-d8', 'unknown name omega', on('potential', 'potential: omega'))] },
   'unknown-function': { blocks: [invalid('gamma-d9', 'function gamma is not allowed', on('trial', 'trial:'))] },
   'bad-id-slug': { blocks: [invalid('dot d10!', 'must be a slug', on('id', 'id: dot d10!'))] },

@@ -339,17 +339,6 @@ describe('parseRecord: misspelt fields get the nearest valid one', () => {
   });
 });
 
-// The record format lists `{ value, uncertainty }` for a constant or the mass as a later feature (docs/record-format.md).
-describe('parseRecord: uncertain inputs are refused as not supported yet', () => {
-  it.each([
-    ['a constant', minimal('constants:\n  k: { value: 3, uncertainty: 0.1 }\n'), 'constants.k'],
-    ['the mass', minimal('mass: { value: 1, uncertainty: 0.01 }\n'), 'mass'],
-  ])('%s', (_what, body, field) => {
-    const p = problems(one(body));
-    expect(p).toEqual([expect.objectContaining({ field, message: expect.stringContaining('uncertain inputs ({ value, uncertainty }) are not supported yet') })]);
-  });
-});
-
 describe('parseRecord: a misspelt physical constant in quantity mode gets the mathjs name', () => {
   it('elementaryCharg -> elementaryCharge', () => {
     const body = 'id: q1\nunits: { length: nm, energy: meV }\nspace: radial\npotential: -elementaryCharg^2 / (4 pi electricConstant 12.9 r)\ntrial: exp(-r / b)\nparameters:\n  b: { start: 5 nm, min: 0.5 nm, max: 50 nm }\n';
