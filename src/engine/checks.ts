@@ -6,7 +6,7 @@ import type { ProblemBase } from './problem.ts';
 import { gradedCheck, type GradedCheck } from './status.ts';
 
 /** What the checks read of a grid solution, one coordinate or several. */
-export type ReferenceGrid = Pick<GridLevels, 'levels' | 'converged' | 'size' | 'refinements' | 'errorEstimate' | 'message'>;
+export type ReferenceGrid = Pick<GridLevels, 'levels' | 'converged' | 'size' | 'refinements' | 'errorEstimate' | 'message' | 'correlated'>;
 
 /** What the checks shared by the trial and the basis evaluations read from a problem. */
 export type CheckedProblem = Pick<ProblemBase, 'parameters' | 'reference' | 'claim' | 'display'>;
@@ -49,7 +49,9 @@ export function referenceChecks(problem: CheckedProblem, energy: number, toleran
         converged,
         grid
           ? grid.converged
-            ? `grid levels settled on ${grid.size} points after ${grid.refinements} refinements (change ${grid.errorEstimate.map((e) => g(e, 2)).join(', ')})`
+            ? grid.correlated
+              ? `correlated-basis levels settled at ${grid.size} functions after ${grid.refinements} enlargements (change ${grid.errorEstimate.map((e) => g(e, 2)).join(', ')})`
+              : `grid levels settled on ${grid.size} points after ${grid.refinements} refinements (change ${grid.errorEstimate.map((e) => g(e, 2)).join(', ')})`
             : `grid solution did not settle: ${grid.message ?? 'no reason given'}`
           : `grid solution failed: ${gridError}`,
         'unsettled',

@@ -15,6 +15,8 @@ export interface FieldGridReference {
   referenceMs: number;
   /** The product grid itself: its axes and states, for the overlap. */
   product: ProductGridLevels | null;
+  /** Where the reference defines one, the energy below which the system is bound (two-electron: the one-electron ion's ground level). */
+  bindingThreshold?: number | null;
 }
 
 /** The independent product-grid solution of the block's Hamiltonian; until the product grid is wired in, it says so. */
