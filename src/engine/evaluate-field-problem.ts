@@ -109,7 +109,7 @@ function trialChecks(problem: FieldProblem, at: FieldExpectation, where: string)
     ),
   ];
   const { space } = problem;
-  if (at.failure === null && space.trialChecks) checks.push(...space.trialChecks(problem.trial, at.placement, where));
+  if (at.failure === null && space.trialChecks) checks.push(...space.trialChecks(problem, at.placement, where));
   const { peakAmplitude } = at.placement;
   const point = new Float64Array(space.axes.length);
   space.axes.forEach((axis, k) => {

@@ -36,7 +36,7 @@ export interface FieldSpace {
    */
   pointOf?(axisPoint: ArrayLike<number>, out: Float64Array): Float64Array;
   /** Checks of the trial this space adds (two-electron: its symmetry under r1 <-> r2). */
-  trialChecks?(trial: FieldTrial, placement: FieldPlacement, where: string): GradedCheck[];
+  trialChecks?(problem: FieldProblem, placement: FieldPlacement, where: string): GradedCheck[];
   /** The space's own independent reference, where it is not a product grid (two-electron: a correlated basis). */
   reference?(problem: FieldProblem): FieldGridReference;
 }

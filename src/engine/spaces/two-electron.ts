@@ -1,8 +1,8 @@
 import type { ProductIntegrand } from '../cubature/integrate-product.ts';
 import type { FieldTrial, PointFunction } from '../problem.ts';
 import type { ExchangeSign } from '../two-electron/correlated-basis.ts';
-import { exchangeCheck } from '../two-electron/exchange-check.ts';
-import { ORDERING_COUNT, simplexPoint } from '../two-electron/perimetric.ts';
+import { exchangeChecks } from '../two-electron/exchange-check.ts';
+import { EXCHANGE_REPRESENTATIVES, simplexPoint } from '../two-electron/perimetric.ts';
 import { boxSpace } from './box.ts';
 import { twoElectronReference } from '../two-electron/two-electron-reference.ts';
 import type { FieldSpace } from './field-space.ts';
@@ -36,7 +36,8 @@ export function twoElectronSpace(mass: number, exchange: ExchangeSign): FieldSpa
     order: [0, 1, 2],
     // The Coulomb singularities sit on the faces of the octant (r1 = 0 is u = v = 0), where the cubature's nodes never go.
     singularities: () => [],
-    trialChecks: (trial, placement, where) => [exchangeCheck(trial, placement, exchange, where)],
+    // The integrands sum one ordering of each exchanged pair twice, which these checks make sound.
+    trialChecks: (problem, placement, where) => exchangeChecks(problem, placement, exchange, where),
     reference: (problem) => twoElectronReference(problem, mass, exchange),
     exchange,
     mass,
@@ -55,8 +56,8 @@ export function twoElectronEnergyIntegrand(trial: Pick<FieldTrial, 'value' | 'gr
   const halfOverMass = 1 / (2 * mass);
   return (point, out) => {
     out[0] = out[1] = out[2] = 0;
-    for (let k = 0; k < ORDERING_COUNT; k++) {
-      const w = simplexPoint(point, k, r);
+    for (const k of EXCHANGE_REPRESENTATIVES) {
+      const w = 2 * simplexPoint(point, k, r);
       const [r1, r2, r12] = [r[R1], r[R2], r[R12]];
       const psi = trial.value(r);
       const g1 = d1(r);
@@ -76,8 +77,8 @@ export function twoElectronVarianceIntegrand(trial: Pick<FieldTrial, 'value' | '
   const r = new Float64Array(3);
   return (point, out) => {
     out[0] = 0;
-    for (let k = 0; k < ORDERING_COUNT; k++) {
-      const w = simplexPoint(point, k, r);
+    for (const k of EXCHANGE_REPRESENTATIVES) {
+      const w = 2 * simplexPoint(point, k, r);
       const psi = trial.value(r);
       if (psi === 0) continue;
       const residual = -0.5 * trial.laplacian(r) + (potential(r) - energy) * psi;

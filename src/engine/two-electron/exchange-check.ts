@@ -1,6 +1,6 @@
 import { g } from '../format.ts';
 import type { FieldPlacement } from '../field-probe.ts';
-import type { FieldTrial } from '../problem.ts';
+import type { FieldProblem, PointFunction } from '../problem.ts';
 import { gradedCheck, type GradedCheck } from '../status.ts';
 import type { ExchangeSign } from './correlated-basis.ts';
 
@@ -14,11 +14,47 @@ const SPANS = [0.1, 0.5, 0.9];
  * largest perimetric coordinate's scale, r12 across its range |r1 - r2| .. r1 + r2); the worst mismatch against the
  * trial's peak decides.
  */
-export function exchangeCheck(trial: FieldTrial, placement: FieldPlacement, sign: ExchangeSign, where: string): GradedCheck {
+export function exchangeChecks(problem: FieldProblem, placement: FieldPlacement, sign: ExchangeSign, where: string): GradedCheck[] {
+  const potential = worstMismatch(problem.potential, placement, 1);
+  const trial = worstMismatch(problem.trial.value, placement, sign);
+  const declared = sign === 1 ? 'symmetric (a spin singlet)' : 'antisymmetric (a spin triplet)';
+  const at = (p: Mismatch) => p.at.map((x, i) => `${['r1', 'r2', 'r12'][i]} = ${g(x, 4)}`).join(', ');
+  return [
+    gradedCheck(
+      'exchange-symmetric-potential',
+      potential.ratio <= SYMMETRY_TOLERANCE,
+      potential.ratio <= SYMMETRY_TOLERANCE
+        ? 'the potential is symmetric under r1 <-> r2'
+        : `the potential must treat both particles alike, but at ${at(potential)} it is ${g(potential.value, 6)} and with r1 and r2 exchanged ${g(potential.exchanged, 6)}`,
+      'invalid',
+      'potential',
+    ),
+    gradedCheck(
+      'exchange-symmetry',
+      trial.ratio <= SYMMETRY_TOLERANCE,
+      trial.ratio <= SYMMETRY_TOLERANCE
+        ? `the trial is ${declared} under r1 <-> r2 at every sample point (worst mismatch ${g(trial.ratio, 2)} of its peak) at ${where}`
+        : `exchange is declared ${sign === 1 ? 'symmetric' : 'antisymmetric'}, but at ${at(trial)} the trial is ${g(trial.value, 6)} and with r1 and r2 exchanged ${g(trial.exchanged, 6)} (must be ${sign === 1 ? 'equal' : 'opposite'}) at ${where}`,
+      'invalid',
+      'exchange',
+    ),
+  ];
+}
+
+interface Mismatch {
+  ratio: number;
+  at: number[];
+  value: number;
+  exchanged: number;
+}
+
+/** The largest |f(r2, r1, r12) - sign f(r1, r2, r12)| over the sample points, against the largest |f| there. */
+function worstMismatch(f: PointFunction, placement: FieldPlacement, sign: ExchangeSign): Mismatch {
   const r = new Float64Array(3);
   const swapped = new Float64Array(3);
   const scale = placement.axes[0].scale;
-  let worst = { ratio: 0, at: [0, 0, 0], psi: 0, exchanged: 0 };
+  const samples: Array<Omit<Mismatch, 'ratio'>> = [];
+  let peak = 0;
   for (const a of OFFSETS) {
     for (const b of OFFSETS) {
       for (const c of SPANS) {
@@ -28,23 +64,17 @@ export function exchangeCheck(trial: FieldTrial, placement: FieldPlacement, sign
         swapped[0] = r[1];
         swapped[1] = r[0];
         swapped[2] = r[2];
-        const psi = trial.value(r);
-        const exchanged = trial.value(swapped);
-        const ratio = Math.abs(exchanged - sign * psi) / placement.peakAmplitude;
-        if (!(ratio <= worst.ratio)) worst = { ratio, at: Array.from(r), psi, exchanged };
+        const value = f(r);
+        const exchanged = f(swapped);
+        samples.push({ at: Array.from(r), value, exchanged });
+        peak = Math.max(peak, Math.abs(value));
       }
     }
   }
-  const declared = sign === 1 ? 'symmetric (a spin singlet)' : 'antisymmetric (a spin triplet)';
-  const pass = worst.ratio <= SYMMETRY_TOLERANCE;
-  const [r1, r2, r12] = worst.at.map((x) => g(x, 4));
-  return gradedCheck(
-    'exchange-symmetry',
-    pass,
-    pass
-      ? `the trial is ${declared} under r1 <-> r2 at every sample point (worst mismatch ${g(worst.ratio, 2)} of its peak) at ${where}`
-      : `exchange is declared ${sign === 1 ? 'symmetric' : 'antisymmetric'}, but at r1 = ${r1}, r2 = ${r2}, r12 = ${r12} the trial is ${g(worst.psi, 6)} and with r1 and r2 exchanged ${g(worst.exchanged, 6)} (must be ${sign === 1 ? 'equal' : 'opposite'}) at ${where}`,
-    'invalid',
-    'exchange',
-  );
+  let worst: Mismatch = { ratio: 0, at: [0, 0, 0], value: 0, exchanged: 0 };
+  for (const s of samples) {
+    const ratio = Math.abs(s.exchanged - sign * s.value) / peak;
+    if (!(ratio <= worst.ratio)) worst = { ratio, ...s };
+  }
+  return worst;
 }

@@ -17,7 +17,12 @@ export function fromPerimetric(point: ArrayLike<number>, out: Float64Array): Flo
 
 /** The six orderings of (u, v, w): which perimetric coordinate is the largest, the middle and the smallest. */
 const ORDERINGS = [[0, 1, 2], [0, 2, 1], [1, 0, 2], [1, 2, 0], [2, 0, 1], [2, 1, 0]] as const;
-export const ORDERING_COUNT = ORDERINGS.length;
+/**
+ * One of each pair of orderings that exchanging v and w (r1 <-> r2) maps onto each other: an integrand that is even
+ * under the exchange (|psi|^2, the energy densities and |(H - E) psi|^2 of a trial of either symmetry with a symmetric
+ * potential) integrates to twice its sum over these.
+ */
+export const EXCHANGE_REPRESENTATIVES = [0, 2, 3] as const;
 
 /**
  * The cubature's coordinates (q, s, t) in [0, inf) x [0, 1] x [0, 1]: in each of the six orderings of the perimetric
