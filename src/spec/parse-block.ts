@@ -244,7 +244,8 @@ function spaceProblems(raw: RawBlock, quantityMode: boolean): Array<[Path, strin
       if (coordinates.includes(name) && !(RESERVED_NAMES as readonly string[]).includes(name)) found.push([[group, name], `${name} is a coordinate of this space; choose another name`]);
     }
   }
-  if (typeof raw.mass === 'string' && (typeof space === 'object' || space === 'axial' || space === 'two-electron')) {
+  // In quantity mode a two-electron mass is a quantity such as 0.067 electronMass, read by the units layer.
+  if (typeof raw.mass === 'string' && (typeof space === 'object' || space === 'axial' || (space === 'two-electron' && !quantityMode))) {
     found.push([['mass'], 'a mass that depends on the coordinates is available on spaces of one coordinate only; give a number (or a map of numbers per coordinate on a product space)']);
   }
   if (typeof raw.mass === 'object') {
