@@ -6,12 +6,14 @@ import { parseRecord } from '../src/spec/parse-record.ts';
 import { closureNanoseconds } from './closure-floor.ts';
 import { benchSyntheticLog } from './log200.ts';
 import { benchStartup } from './startup.ts';
+import { benchTwoElectron } from './two-electron.ts';
 
 /**
  * Evaluates every benchmark record repeatedly, then checks a synthetic 200-block log through the CLI
  * cold and cached, times the command line's start-up (`startupMs`, `cachedOneFileMs`: see startup.ts),
  * and prints one comparable JSON document (progress on stderr).
- * Usage: tsx bench/problems.ts [folder] [--problems-only]; the flag leaves out the synthetic log.
+ * Usage: tsx bench/problems.ts [folder] [--problems-only]; the flag leaves out the synthetic log. `twoElectron` times the
+ * two-electron space (bench/two-electron.ts).
  *
  * Per single-trial problem, `floorMs` is the trial evaluations times the time of one evaluation of
  * the compiled trial, derivative and potential (`closureNs`): the least the variational part could
@@ -58,4 +60,5 @@ for (const file of records) {
 }
 const { startupMs, cachedOneFileMs } = await benchStartup(records[0]);
 const log200 = problemsOnly ? null : await benchSyntheticLog(200);
-process.stdout.write(JSON.stringify({ node: process.version, cores: os.availableParallelism(), startupMs, cachedOneFileMs, problems, log200 }, null, 2) + '\n');
+const twoElectron = benchTwoElectron();
+process.stdout.write(JSON.stringify({ node: process.version, cores: os.availableParallelism(), startupMs, cachedOneFileMs, problems, log200, twoElectron }, null, 2) + '\n');
