@@ -2,6 +2,7 @@ import * as Plot from '@observablehq/plot';
 import { parseHTML } from 'linkedom';
 import type { DensityProfile, EnergyScan } from '../engine/plot-data.ts';
 import type { BlockResult } from '../log/result-types.ts';
+import { describeLevel } from '../engine/parity.ts';
 import { formatNumber } from './html.ts';
 
 /** Plot draws into a DOM; on the server a small standalone one is enough. */
@@ -46,11 +47,12 @@ function scanPlot(scan: EnergyScan, result: BlockResult, units: PlotUnits): stri
   }
   return draw(
     {
-      x: { label: `${scan.parameter}${unit ? ` (${unit})` : ' (atomic units)'}`, nice: true },
+      // In quantity mode a parameter without a unit is a pure number; in atomic mode it is in atomic units.
+      x: { label: `${scan.parameter}${unit ? ` (${unit})` : result.quantity ? '' : ' (atomic units)'}`, nice: true },
       y: { label: `E (${units.energy})`, nice: true, grid: true },
       marks,
     },
-    `Energy against ${scan.parameter} through the optimum; dashed line: reference ground energy`,
+    `Energy against ${scan.parameter} through the optimum; dashed line: reference energy of the ${targetLevel(result)}`,
   );
 }
 
@@ -84,7 +86,7 @@ function densityPlot(profile: DensityProfile, result: BlockResult, units: PlotUn
       y: { label: `energy (${units.energy})`, domain: [low - margin, high + margin], grid: true },
       marks,
     },
-    `Thick grey: potential V(${q}). Shaded with line: trial density${q === 'r' ? ' r²|R|²' : ' |ψ|²'}; open circles: grid ground-state density at its nodes; both scaled and drawn from the level E. Dashed: reference ground energy.`,
+    `Thick grey: potential V(${q}). Shaded with line: trial density${q === 'r' ? ' r²|R|²' : ' |ψ|²'}; open circles: grid density of the ${targetLevel(result)} at its nodes; both scaled and drawn from the level E. Dashed: reference energy of that level.`,
   );
 }
 
@@ -107,6 +109,11 @@ function levelPlot(result: BlockResult, units: PlotUnits): string {
     },
     'Levels of the basis (left) against the grid levels of the same index (right); dotted lines join partners.',
   );
+}
+
+/** The grid level a block is compared with, in words ("ground level", "lowest odd level"). */
+function targetLevel(result: BlockResult): string {
+  return result.reference ? describeLevel(result.reference.level) : 'ground level';
 }
 
 function draw(options: Plot.PlotOptions, caption: string): string {

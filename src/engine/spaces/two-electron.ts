@@ -1,11 +1,11 @@
-import type { ProductIntegrand } from '../cubature/integrate-product.ts';
+import { integrateProduct, type CubaturePartition, type ProductIntegrand } from '../cubature/integrate-product.ts';
 import type { FieldTrial, PointFunction } from '../problem.ts';
 import type { ExchangeSign } from '../two-electron/correlated-basis.ts';
 import { exchangeChecks } from '../two-electron/exchange-check.ts';
 import { EXCHANGE_REPRESENTATIVES, simplexPoint } from '../two-electron/perimetric.ts';
 import { boxSpace } from './box.ts';
 import { twoElectronReference } from '../two-electron/two-electron-reference.ts';
-import type { FieldSpace } from './field-space.ts';
+import { cubatureAxes, type FieldSpace } from './field-space.ts';
 import { halfLineSpace } from './half-line.ts';
 import type { CoordinateSpace } from './space.ts';
 
@@ -33,7 +33,9 @@ export function twoElectronSpace(mass: number, exchange: ExchangeSign): FieldSpa
     pointOf: (point, out) => (simplexPoint(point, 0, out), out),
     energyIntegrand: (trial, potential) => twoElectronEnergyIntegrand(trial, potential, mass),
     varianceIntegrand: (trial, potential, energy) => twoElectronVarianceIntegrand(trial, potential, energy),
-    order: [0, 1, 2],
+    integrate(integrand, components, placements, options) {
+      return integrateProduct(integrand, components, cubatureAxes(this, placements), { relTol: options.relTol, absTol: options.absTol, start: options.start as CubaturePartition | undefined });
+    },
     // The Coulomb singularities sit on the faces of the octant (r1 = 0 is u = v = 0), where the cubature's nodes never go.
     singularities: () => [],
     // The integrands sum one ordering of each exchanged pair twice, which these checks make sound.
