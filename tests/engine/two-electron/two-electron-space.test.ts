@@ -95,7 +95,7 @@ trial: exp(-r1 - r2 - x)
 `);
     expect(result.status).toBe('invalid');
     expect(result.problems[0]).toMatchObject({ field: 'trial', block: 'wrong-coordinate' });
-    expect(result.problems[0].message).toMatch(/x/);
+    expect(result.problems[0].message).toMatch(/unknown name x.*the coordinates of space two-electron are r1, r2, r12/);
   });
 
   it('refuses exchange on another space, naming the field', () => {
