@@ -8,13 +8,15 @@ import { benchSyntheticLog } from './log200.ts';
 import { benchReview } from './review.ts';
 import { benchSweeps } from './sweeps.ts';
 import { benchStartup } from './startup.ts';
+import { benchTwoElectron } from './two-electron.ts';
 
 /**
  * Evaluates every benchmark record repeatedly, then checks a synthetic 200-block log through the CLI
  * cold and cached, reviews it in git (bench/review.ts: `diff HEAD~1` with 5 changed blocks, systems and histories
  * against a cached check), times the command line's start-up (`startupMs`, `cachedOneFileMs`: see startup.ts),
  * and prints one comparable JSON document (progress on stderr).
- * Usage: tsx bench/problems.ts [folder] [--problems-only]; the flag leaves out the synthetic log.
+ * Usage: tsx bench/problems.ts [folder] [--problems-only]; the flag leaves out the synthetic log. `twoElectron` times the
+ * two-electron space (bench/two-electron.ts).
  *
  * Per single-trial problem, `floorMs` is the trial evaluations times the time of one evaluation of
  * the compiled trial, derivative and potential (`closureNs`): the least the variational part could
@@ -62,5 +64,6 @@ for (const file of records) {
 const { startupMs, cachedOneFileMs } = await benchStartup(records[0]);
 const sweeps = benchSweeps();
 const log200 = problemsOnly ? null : await benchSyntheticLog(200);
+const twoElectron = benchTwoElectron();
 const review200 = problemsOnly ? null : await benchReview(200);
-process.stdout.write(JSON.stringify({ node: process.version, cores: os.availableParallelism(), startupMs, cachedOneFileMs, problems, sweeps, log200, review200 }, null, 2) + '\n');
+process.stdout.write(JSON.stringify({ node: process.version, cores: os.availableParallelism(), startupMs, cachedOneFileMs, problems, sweeps, twoElectron, log200, review200 }, null, 2) + '\n');

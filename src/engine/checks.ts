@@ -55,7 +55,9 @@ export function referenceChecks(problem: CheckedProblem, energy: number, toleran
         converged,
         grid
           ? grid.converged
-            ? `grid levels settled on ${grid.size} points after ${grid.refinements} refinements (change ${grid.errorEstimate.map((e) => g(e, 2)).join(', ')})`
+            ? grid.correlated
+              ? `correlated-basis levels settled at ${grid.size} functions after ${grid.refinements} enlargements (change ${grid.errorEstimate.map((e) => g(e, 2)).join(', ')})`
+              : `grid levels settled on ${grid.size} points after ${grid.refinements} refinements (change ${grid.errorEstimate.map((e) => g(e, 2)).join(', ')})`
             : `grid solution did not settle: ${grid.message ?? 'no reason given'}`
           : `grid solution failed: ${gridError}`,
         'unsettled',

@@ -65,7 +65,7 @@ export function evaluateFieldProblem(problem: FieldProblem): EngineResult {
   if (optimiser) checks.push(...optimiserChecks(problem, optimiser));
   const variance = fieldVariance(problem, optimum);
 
-  const { grid, gridError, referenceMs, product } = fieldGridReference(problem, placement);
+  const { grid, gridError, referenceMs, product, bindingThreshold } = problem.space.reference ? problem.space.reference(problem) : fieldGridReference(problem, placement);
   const tolerance = 10 * optimum.errorEstimate + COMPARISON_FLOOR * Math.max(1, Math.abs(energy));
   checks.push(...referenceChecks(problem, energy, tolerance, grid, gridError));
   const nextLevel = grid ? (grid.levels.length > 1 ? grid.levels[1] : grid.threshold) : null;
@@ -97,6 +97,7 @@ export function evaluateFieldProblem(problem: FieldProblem): EngineResult {
     states: [{ energy, errorEstimate: optimum.errorEstimate, reference: grid?.levels[0] ?? null }],
     basis: null,
     level: GROUND_LEVEL,
+    ...(bindingThreshold !== undefined ? { binding: bindingThreshold === null ? null : { threshold: bindingThreshold, below: energy < bindingThreshold } } : {}),
   };
 }
 
@@ -111,6 +112,7 @@ function trialChecks(problem: FieldProblem, at: FieldExpectation, where: string)
     ),
   ];
   const { space } = problem;
+  if (at.failure === null && space.trialChecks) checks.push(...space.trialChecks(problem, at.placement, where));
   const { peakAmplitude } = at.placement;
   const point = new Float64Array(space.axes.length);
   space.axes.forEach((axis, k) => {

@@ -44,6 +44,11 @@ export interface EngineResult {
   states: Array<{ energy: number; errorEstimate: number; reference: number | null }>;
   /** The linear method's overlap diagnostics; null for a single trial. */
   basis: BasisDiagnostics | null;
+  /**
+   * Where the reference defines a threshold of binding (two-electron: the one-electron ion's ground level), whether the
+   * variational energy lies below it, which shows the system bound; absent elsewhere.
+   */
+  binding?: { threshold: number; below: boolean } | null;
   /** The grid level the energy is compared with (declared by the block, read off an odd trial, or the ground level). */
   level: TargetLevel;
 }

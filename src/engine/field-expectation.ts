@@ -3,7 +3,7 @@ import type { FieldPlacement } from './field-probe.ts';
 import { probeField } from './field-probe.ts';
 import type { SearchPoint } from './expectation.ts';
 import type { FieldProblem } from './problem.ts';
-import type { FieldCubatureResult } from './spaces/field-space.ts';
+import { onAxes, type FieldCubatureResult } from './spaces/field-space.ts';
 import type { VarianceResult } from './variance.ts';
 
 /** <H> of a trial of several coordinates at one parameter point, its parts and their error. */
@@ -33,7 +33,8 @@ export const FIELD_VARIANCE_REL_TOL = 1e-5;
 
 /** Probes the trial at the parameters already set and places the cubature there. */
 export function placeField(problem: FieldProblem): FieldPlacement {
-  return probeField(problem.trial.value, problem.potential, problem.space, [...problem.potentialSwitches, ...problem.trial.switches]);
+  const { space } = problem;
+  return probeField(onAxes(space, problem.trial.value), onAxes(space, problem.potential), space, [...problem.potentialSwitches, ...problem.trial.switches]);
 }
 
 /** N, <T>, <V> by product cubature over the space at the parameters already set, placed by `placement`. */

@@ -10,6 +10,8 @@ export interface FieldGridReference {
   referenceMs: number;
   /** The product grid itself: its axes and states, for the overlap. */
   product: ProductGridLevels | null;
+  /** Where the reference defines one, the energy below which the system is bound (two-electron: the one-electron ion's ground level). */
+  bindingThreshold?: number | null;
 }
 
 /**
@@ -22,8 +24,10 @@ export const FIELD_GRID_REL_TOL = 1e-7;
 export function fieldGridReference(problem: FieldProblem, placement: FieldPlacement, levels?: number): FieldGridReference {
   const started = performance.now();
   if (!problem.reference.solve) return { grid: null, gridError: null, referenceMs: 0, product: null };
+  const { gridProblem } = problem.space;
+  if (!gridProblem) return { grid: null, gridError: `space ${problem.space.name} has no product-grid reference`, referenceMs: 0, product: null };
   try {
-    const product = productGridLevels({ ...problem.space.gridProblem(problem.potential, placement.axes), levels, relTol: FIELD_GRID_REL_TOL });
+    const product = productGridLevels({ ...gridProblem(problem.potential, placement.axes), levels, relTol: FIELD_GRID_REL_TOL });
     return { grid: summary(product), gridError: null, referenceMs: performance.now() - started, product };
   } catch (error) {
     return { grid: null, gridError: error instanceof Error ? error.message : String(error), referenceMs: performance.now() - started, product: null };

@@ -61,6 +61,22 @@ export interface GridLevels {
   message: string | null;
   /** A product grid (several coordinates) summarised here: each axis's domain and elements; absent on one coordinate. */
   axes?: Array<{ name: string; domain: [number, number]; elements: number; order: number }>;
+  /** A correlated-basis reference (two-electron) summarised here: the Hamiltonian read from the potential, the exponents and how the levels settled. */
+  correlated?: CorrelatedSummary;
+}
+
+/** How a correlated-basis reference was built and settled. */
+export interface CorrelatedSummary {
+  /** Z and c of -Z/r1 - Z/r2 + c/r12, read from the potential. */
+  charge: number;
+  coupling: number;
+  /** Exponent pairs (alpha on r1, beta on r2, bohr^-1) and the largest i + j + k of their terms. */
+  sets: Array<{ alpha: number; beta: number; omega: number }>;
+  /** Directions dropped as linearly dependent at the final size. */
+  dropped: number;
+  relTol: number;
+  /** Each size tried: omega, the number of functions, the lowest two levels (hartree; a second may be null). */
+  steps: Array<{ omega: number; size: number; levels: [number, number | null] }>;
 }
 
 /** WKB decay exponent at which a tail is cut: amplitude e^-20, so the energy error is of order e^-40. */

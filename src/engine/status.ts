@@ -24,7 +24,7 @@ export interface Measure {
 export interface GradedCheck extends Check {
   failure: Exclude<Status, 'confirmed'>;
   /** The block field a failure points at, when it is not the trial (or basis) itself. */
-  field?: 'potential' | 'mass' | 'symmetry';
+  field?: 'potential' | 'mass' | 'symmetry' | 'exchange';
 }
 
 export function gradedCheck(name: string, pass: boolean, detail: string, failure: GradedCheck['failure'], field?: GradedCheck['field']): GradedCheck {

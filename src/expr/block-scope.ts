@@ -48,7 +48,7 @@ export function derivativeTooLarge(tree: MathNode, order: string, state: { field
 }
 
 /** Names that are a coordinate of some space, for telling a misplaced coordinate from an unknown name. */
-const SPACE_COORDINATES: Record<string, string> = { x: 'line, half-line', r: 'radial, plane', rho: 'axial', z: 'axial' };
+const SPACE_COORDINATES: Record<string, string> = { x: 'line, half-line', r: 'radial, plane', rho: 'axial', z: 'axial', r1: 'two-electron', r2: 'two-electron', r12: 'two-electron' };
 
 /** The allow-list's refusal, said in the block's terms where a block-level reason is known. */
 export function explainRefusal(token: string, message: string, spec: BlockSpec, field: string): string {
@@ -61,6 +61,8 @@ export function explainRefusal(token: string, message: string, spec: BlockSpec, 
   const coordinates = coordinatesOf(spec.space);
   const own = coordinates.length === 1 ? `the coordinate of space ${spaceLabel(spec.space)} is ${coordinates[0]}` : `the coordinates of space ${spaceLabel(spec.space)} are ${coordinates.join(', ')}`;
   if (token in SPACE_COORDINATES && !coordinates.includes(token)) return `unknown name ${token} (a coordinate of space ${SPACE_COORDINATES[token]}): ${own}`;
+  // A two-electron trial is a function of the three distances only: a stray name is most likely a fourth coordinate.
+  if (spec.space === 'two-electron' && message.startsWith('unknown name')) return `${message}; ${own}`;
   if (token === 'mass' && spec.masses !== null) return `mass is given per coordinate in this block (${Object.keys(spec.masses).join(', ')}), so the name mass has no single value; declare the value you need under constants`;
   return message;
 }

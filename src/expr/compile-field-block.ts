@@ -3,7 +3,7 @@ import type { AxisSwitch, FieldTrial, PointFunction } from '../engine/problem.ts
 import { coordinatesOf, type BlockSpec } from '../spec/types.ts';
 import { checkExpression, type NameScope } from './allow-list.ts';
 import { blockConstants, derivativeTooLarge, explainRefusal, type ExpressionProblem } from './block-scope.ts';
-import { add, div, num, sym } from './build.ts';
+import { add, div, mul, num, pow, sub, sym } from './build.ts';
 import { compileTree, type Compiled } from './compile.ts';
 import { dependsOn, differentiate } from './differentiate.ts';
 import { switchFunctions } from './switch-points.ts';
@@ -22,7 +22,8 @@ export type CompileFieldResult = { ok: true; block: CompiledFieldBlock } | { ok:
 /**
  * Checks the potential and trial of an axial or product-space block against its coordinates and declarations, and
  * compiles the trial, each first partial derivative and the Laplacian the space needs (axial: the cylindrical
- * d2_rho + d_rho/rho + d2_z; a product space: sum_k d2_k / m_k) from symbolic derivatives.
+ * d2_rho + d_rho/rho + d2_z; a product space: sum_k d2_k / m_k; two-electron: (laplacian_1 + laplacian_2) / mass in
+ * r1, r2, r12) from symbolic derivatives.
  */
 export function compileFieldBlock(spec: BlockSpec): CompileFieldResult {
   const coordinates = coordinatesOf(spec.space);
@@ -57,6 +58,8 @@ export function compileFieldBlock(spec: BlockSpec): CompileFieldResult {
   let laplacianTree: MathNode;
   if (spec.space === 'axial') {
     laplacianTree = add(add(second(0), div(gradientTrees[0], sym('rho'))), second(1));
+  } else if (spec.space === 'two-electron') {
+    laplacianTree = div(twoElectronLaplacian(gradientTrees, second), num(spec.mass as number));
   } else {
     const masses = spec.masses ?? {};
     laplacianTree = coordinates.map((c, k) => div(second(k), num(masses[c] ?? spec.mass))).reduce((a, b) => add(a, b));
@@ -83,8 +86,9 @@ export function compileFieldBlock(spec: BlockSpec): CompileFieldResult {
           slots[2] = p[2];
           return f(slots);
         };
+  // Two-electron axes are perimetric, so no switch of r1, r2 or r12 lies along one of them: the cubature finds kinks itself.
   const axisSwitches = (tree: MathNode): AxisSwitch[] =>
-    switchFunctions(tree).flatMap((g) => {
+    spec.space === 'two-electron' ? [] : switchFunctions(tree).flatMap((g) => {
       const on = coordinates.map((c, k) => (dependsOn(g, c) ? k : -1)).filter((k) => k >= 0);
       if (on.length !== 1) return [];
       const axis = on[0];
@@ -104,4 +108,19 @@ export function compileFieldBlock(spec: BlockSpec): CompileFieldResult {
     ok: true,
     block: { trees: { coordinates, potential: potentialTree, trial: trialTree }, potential: atPoint(compile(potentialTree)), potentialSwitches: axisSwitches(potentialTree), trial },
   };
+}
+
+/**
+ * The Laplacian of both particles for an S state psi(r1, r2, r12) (Hylleraas, Z. Phys. 54, 347 (1929); Bethe & Salpeter,
+ * Quantum Mechanics of One- and Two-Electron Atoms, 1957, §32): psi_11 + 2 psi_1/r1 + psi_22 + 2 psi_2/r2 + 2 psi_uu + 4 psi_u/u
+ * + (r1^2 - r2^2 + u^2)/(r1 u) psi_1u + (r2^2 - r1^2 + u^2)/(r2 u) psi_2u with u = r12; the last two come from
+ * grad_1 r1 . grad_1 r12 = cos(r1, r12).
+ */
+function twoElectronLaplacian(gradient: MathNode[], second: (k: number) => MathNode): MathNode {
+  const [r1, r2, u] = [sym('r1'), sym('r2'), sym('r12')];
+  const sq = (x: MathNode) => pow(x, num(2));
+  const radial = (k: number, r: MathNode) => add(second(k), div(mul(num(2), gradient[k]), r));
+  const mixed = (k: number, r: MathNode, other: MathNode) => mul(div(add(sub(sq(r), sq(other)), sq(u)), mul(r, u)), differentiate(gradient[k], 'r12'));
+  const pair = add(mul(num(2), second(2)), div(mul(num(4), gradient[2]), u));
+  return add(add(add(radial(0, r1), radial(1, r2)), pair), add(mixed(0, r1, r2), mixed(1, r2, r1)));
 }

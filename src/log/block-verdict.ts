@@ -12,7 +12,7 @@ export interface Verdict {
   /** The resolution E is worth writing to: the finest of the gap, the claim's tolerance, the quadrature error. */
   resolution: number | null;
   /** E - E_ref against the reference the status was decided on (the grid level, else the published value); `resolved` is false when the gap is below what the numerics resolve (zero within that). */
-  gap: { reference: number; method: 'grid' | 'published'; absolute: number; relative: number | null; resolved: boolean } | null;
+  gap: { reference: number; method: 'grid' | 'correlated-basis' | 'published'; absolute: number; relative: number | null; resolved: boolean } | null;
   /** [best lower bound, E]: the lower end is the highest valid lower bound, named. */
   bracket: { lower: number; upper: number; width: number; lowerFrom: 'Temple' | 'Weinstein' } | null;
   /** The claimed energy against the recomputation; null when the block claims no energy. */
@@ -55,7 +55,7 @@ export function numericFloor(result: BlockResult): number {
 
 function reasonOf(result: BlockResult, gap: Verdict['gap'], claim: Verdict['claim']): string {
   if (result.status !== 'confirmed') return result.message ?? result.problems.map((p) => p.message).join('; ') ?? result.status;
-  const against = gap ? `at or above the ${gap.method === 'grid' ? 'grid' : 'published'} reference` : 'no reference to compare with';
+  const against = gap ? `at or above the ${gap.method === 'correlated-basis' ? 'correlated-basis' : gap.method === 'grid' ? 'grid' : 'published'} reference` : 'no reference to compare with';
   const parametersOnly = !claim && result.claim && Object.keys(result.claim.parameters).length > 0;
   return `${against}; ${claim ? 'the claim agrees' : parametersOnly ? 'the claimed parameters agree' : 'no claim made'}; every check passes`;
 }

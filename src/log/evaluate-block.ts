@@ -6,6 +6,7 @@ import type { MathNode } from 'mathjs';
 import { evaluateFieldProblem } from '../engine/evaluate-field-problem.ts';
 import { axialSpace } from '../engine/spaces/axial.ts';
 import { cartesianSpace } from '../engine/spaces/cartesian.ts';
+import { twoElectronSpace } from '../engine/spaces/two-electron.ts';
 import { compileBlock } from '../expr/compile-block.ts';
 import { compileFieldBlock } from '../expr/compile-field-block.ts';
 import { texOptions } from '../expr/symbol-tex.ts';
@@ -75,6 +76,7 @@ function evaluateAtomic(file: string, spec: BlockSpec, withSensitivities: boolea
     basisTex: trees.basis?.map((tree) => tree.toTex(tex)) ?? null,
     constants: spec.constants,
     ranges: spec.varied.map(({ name, start, min, max }) => ({ name, start, min, max })),
+    ...(spec.exchange ? { exchange: spec.exchange.value } : {}),
   };
   const result = toBlockResult(file, spec, inputs, engine, hash, started);
   return {
@@ -216,7 +218,9 @@ function evaluateFieldBlock(spec: BlockSpec, localSearch: boolean): Evaluated {
   const space =
     typeof written === 'object'
       ? cartesianSpace(Object.entries(written).map(([name, range]) => ({ name, range, mass: spec.masses?.[name] ?? mass })))
-      : axialSpace(spec.angularMomentum, mass);
+      : written === 'two-electron'
+        ? twoElectronSpace(mass, spec.exchange?.value === 'antisymmetric' ? -1 : 1)
+        : axialSpace(spec.angularMomentum, mass);
   const problem: FieldProblem = { space, potential: block.potential, potentialSwitches: block.potentialSwitches, trial: block.trial, ...shared(spec), localSearch };
   // Systems are found among blocks of one coordinate; sampling a field's Hamiltonian is left for later.
   const expectationOf = (f: Compiled, parameters: number[]) => fieldExpectationOf(problem, (point) => f(point), parameters);
@@ -274,6 +278,8 @@ function toBlockResult(file: string, spec: BlockSpec, inputs: BlockInputs, engin
                 ? { file, line: typeof spec.mass === 'number' ? spec.line : spec.mass.line, block: spec.id, field: 'mass', message: c.detail }
                 : c.field === 'symmetry'
                   ? { file, line: spec.level?.line ?? spec.line, block: spec.id, field: 'symmetry', message: c.detail }
+                : c.field === 'exchange'
+                  ? { file, line: spec.exchange?.line ?? spec.line, block: spec.id, field: 'exchange', message: c.detail }
                   : { file, line: (spec.trial ?? spec.basis![0]).line, block: spec.id, field: spec.trial ? 'trial' : 'basis', message: c.detail },
           ) : [];
   return {
@@ -297,12 +303,13 @@ function toBlockResult(file: string, spec: BlockSpec, inputs: BlockInputs, engin
             energy: grid ? gridLevel : published!.energy,
             excited: grid?.levels[level.nextGridIndex] ?? null,
             threshold: grid && Number.isFinite(grid.threshold) ? grid.threshold : null,
-            method: grid ? 'grid' : 'published',
+            method: grid ? (grid.correlated ? 'correlated-basis' : 'grid') : 'published',
             published,
             level: { index: level.index, symmetry: level.symmetry },
           }
         : null,
     errors: { vsGrid: relative(gridLevel), vsPublished: relative(published?.energy ?? null) },
+    ...(engine.binding !== undefined ? { binding: engine.binding && { ...engine.binding, detail: bindingDetail(engine.binding.below, engine.status) } } : {}),
     bounds: { upper: engine.bounds.upper, lower: engine.bounds.lower, weinstein: engine.bounds.weinstein },
     overlap: engine.overlap,
     virial: engine.virial,
@@ -335,6 +342,7 @@ function toBlockResult(file: string, spec: BlockSpec, inputs: BlockInputs, engin
             errorEstimate: engine.grid.errorEstimate,
             converged: engine.grid.converged,
             ...(engine.grid.axes ? { axes: engine.grid.axes } : {}),
+            ...(engine.grid.correlated ? { correlated: engine.grid.correlated } : {}),
           }
         : null,
       energyEvaluations: engine.counts.energyEvaluations,
@@ -351,4 +359,10 @@ function toBlockResult(file: string, spec: BlockSpec, inputs: BlockInputs, engin
     inputHash: hash,
     timeMs: performance.now() - started,
   };
+}
+
+/** The verdict on binding in words: a trial above the threshold can still be a sound upper bound, it just shows no binding. */
+function bindingDetail(below: boolean, status: BlockResult['status']): string {
+  if (below) return 'the energy lies below the threshold: binding shown by this trial';
+  return status === 'confirmed' ? 'confirmed, but binding not shown by this trial (its energy lies above the threshold)' : 'binding not shown by this trial (its energy lies above the threshold)';
 }

@@ -1,4 +1,5 @@
 import type { BasisDiagnostics } from '../engine/evaluate-problem.ts';
+import type { CorrelatedSummary } from '../engine/grid-levels.ts';
 import type { PlotData } from '../engine/plot-data.ts';
 import type { Check, Status } from '../engine/status.ts';
 import type { FrontMatter, QuantityMode, Space, SpecProblem } from '../spec/types.ts';
@@ -39,6 +40,8 @@ export interface BlockInputs {
   /** Quantity mode only: the unit each declared constant is stated in (as written, else coherent SI; null for a pure number). */
   constantUnits?: Record<string, string | null>;
   ranges: Array<{ name: string; start: number; min: number; max: number }>;
+  /** two-electron: the declared symmetry under r1 <-> r2; absent elsewhere. */
+  exchange?: 'symmetric' | 'antisymmetric';
 }
 
 /**
@@ -80,7 +83,8 @@ export interface BlockResult {
     energy: number | null;
     excited: number | null;
     threshold: number | null;
-    method: 'grid' | 'published' | null;
+    /** grid: a grid diagonalisation; correlated-basis: the two-electron linear method in a correlated basis; published: the block's value only. */
+    method: 'grid' | 'correlated-basis' | 'published' | null;
     published: { energy: number; tolerance: number; source: string } | null;
     /**
      * The level `energy` (and the published value) stands for: 0-based among the levels of `symmetry` (parity under
@@ -89,6 +93,11 @@ export interface BlockResult {
     level: { index: number; symmetry: 'even' | 'odd' | null };
   } | null;
   errors: { vsGrid: number | null; vsPublished: number | null };
+  /**
+   * two-electron: the threshold below which the system is bound (the one-electron ion's ground level, -mass Z^2/2) and
+   * whether the variational energy lies below it (binding shown by this trial); absent on other spaces.
+   */
+  binding?: { threshold: number; below: boolean; detail: string } | null;
   bounds: { upper: number | null; lower: number | null; weinstein: [number, number] | null };
   overlap: number | null;
   virial: { exponent: number; ratio: number } | null;
@@ -101,7 +110,17 @@ export interface BlockResult {
   diagnostics: {
     energyError: number | null;
     optimiser: { method: string; iterations: number; evaluations: number; converged: boolean; starts: number; activeLimits: Array<'min' | 'max' | null>; curvature: number[][] } | null;
-    grid: { size: number; elements: number; elementOrder: number; refinements: number; domain: [number, number]; errorEstimate: number[]; converged: boolean } | null;
+    grid: {
+      size: number;
+      elements: number;
+      elementOrder: number;
+      refinements: number;
+      domain: [number, number];
+      errorEstimate: number[];
+      converged: boolean;
+      /** two-electron: the correlated basis (exponents in bohr^-1, or the block's length unit^-1 in quantity mode) and how it settled. */
+      correlated?: CorrelatedSummary;
+    } | null;
     energyEvaluations: number;
     trialEvaluations: number;
     plotEvaluations: number;

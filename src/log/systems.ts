@@ -170,7 +170,8 @@ function bracketOf(level: string, members: SystemMember[], group: Located[]): Br
     if (m.lower !== null && (lower === null || m.lower > lower.value)) lower = { value: m.lower, member };
   });
   const blocks = group.filter((g) => levelOf(g.block) === level && g.block.status !== 'invalid').map((g) => g.block);
-  const gridBlock = blocks.find((b) => b.reference?.method === 'grid');
+  // A two-electron block's correlated-basis reference is its independent solution as the grid is elsewhere.
+  const gridBlock = blocks.find((b) => b.reference?.method === 'grid' || b.reference?.method === 'correlated-basis');
   const published = new Map<string, { energy: number; source: string }>();
   for (const b of blocks) {
     const p = b.reference?.published;

@@ -119,7 +119,19 @@ export function inBlockUnits(result: BlockResult, units: QuantityMode): BlockRes
         curvature: diagnostics.optimiser.curvature.map((row, i) => row.map((c, j) => (c * E) / (s.parameter(varied[i]).perAtomic * s.parameter(varied[j]).perAtomic))),
       },
       energyError: diagnostics.energyError === null ? null : diagnostics.energyError * Math.abs(E),
-      grid: diagnostics.grid && { ...diagnostics.grid, domain: [diagnostics.grid.domain[0] * L, diagnostics.grid.domain[1] * L] },
+      grid: diagnostics.grid && {
+        ...diagnostics.grid,
+        domain: [diagnostics.grid.domain[0] * L, diagnostics.grid.domain[1] * L],
+        ...(diagnostics.grid.correlated
+          ? {
+              correlated: {
+                ...diagnostics.grid.correlated,
+                sets: diagnostics.grid.correlated.sets.map((s) => ({ alpha: s.alpha / L, beta: s.beta / L, omega: s.omega })),
+                steps: diagnostics.grid.correlated.steps.map((s) => ({ ...s, levels: [energy(s.levels[0]), maybe(s.levels[1])] as [number, number | null] })),
+              },
+            }
+          : {}),
+      },
     },
     sensitivities: result.sensitivities && result.sensitivities.map((s) => sensitivityInUnits(s, units)),
     uncertainty: result.uncertainty && {
@@ -128,6 +140,7 @@ export function inBlockUnits(result: BlockResult, units: QuantityMode): BlockRes
       uncertainty: result.uncertainty.uncertainty * E,
       reevaluated: maybe(result.uncertainty.reevaluated),
     },
+    ...(result.binding !== undefined ? { binding: result.binding && { ...result.binding, threshold: energy(result.binding.threshold) } } : {}),
     quantity: units,
   };
 }

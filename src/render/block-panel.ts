@@ -88,7 +88,7 @@ function renderVerdict(result: BlockResult, verdict: Verdict): string {
     const relative = verdict.gap.relative === null ? '' : ` (${signed(formatNumber(100 * verdict.gap.relative, 2))}\u00a0%)`;
     // A gap below what the numerics can resolve is zero within that resolution, not a figure to read.
     const gap = !verdict.gap.resolved ? `0 within ${formatNumber(numericFloor(result), 1)}${unit ? `\u00a0${escapeHtml(unit)}` : ''}` : `${signed(energyText(verdict.gap.absolute, { ...verdict, resolution: Math.abs(verdict.gap.absolute) / 100 }, unit))}${relative}`;
-    items.push(`<li><span class="gw-v-label">E ${MINUS} E<sub>ref</sub></span> <span class="gw-num">${gap}</span> <span class="gw-quiet">against the ${verdict.gap.method === 'grid' ? 'grid' : 'published value'}</span></li>`);
+    items.push(`<li><span class="gw-v-label">E ${MINUS} E<sub>ref</sub></span> <span class="gw-num">${gap}</span> <span class="gw-quiet">against the ${verdict.gap.method === 'correlated-basis' ? 'correlated-basis reference' : verdict.gap.method === 'grid' ? 'grid' : 'published value'}</span></li>`);
   } else if (result.energy) items.push(`<li class="gw-quiet">no reference to compare with</li>`);
   if (verdict.bracket) {
     const b = verdict.bracket;
@@ -137,6 +137,7 @@ function constantMassKinetic(inputs: BlockInputs): string {
   const space = inputs.space;
   if (space === 'radial') return `-\\frac{\\hbar^2}{2m}\\frac{1}{r^2}\\frac{d}{dr}r^2\\frac{d}{dr}${l ? `+\\frac{${l * (l + 1)}\\hbar^2}{2m r^2}` : ''}`;
   if (space === 'plane') return `-\\frac{\\hbar^2}{2m}\\frac{1}{r}\\frac{d}{dr}r\\frac{d}{dr}${l ? `+\\frac{${l * l}\\hbar^2}{2m r^2}` : ''}`;
+  if (space === 'two-electron') return '-\\frac{\\hbar^2}{2m}\\left(\\nabla_1^2+\\nabla_2^2\\right)';
   if (space === 'axial') return `-\\frac{\\hbar^2}{2m}\\left(\\frac{1}{\\rho}\\frac{\\partial}{\\partial\\rho}\\rho\\frac{\\partial}{\\partial\\rho}+\\frac{\\partial^2}{\\partial z^2}\\right)${l ? `+\\frac{${l * l}\\hbar^2}{2m\\rho^2}` : ''}`;
   if (typeof space === 'object') {
     return inputs.coordinates
@@ -165,6 +166,7 @@ function whereTex(inputs: BlockInputs, lengthUnit: string): string {
   const q = inputs.coordinate;
   if (inputs.box) return `${q} \\in [${texNumber(inputs.box[0], 10)}, ${texNumber(inputs.box[1], 10)}]${lengthUnit}`;
   if (space === 'axial') return '\\rho \\ge 0,\\ z \\in \\mathbb{R}';
+  if (space === 'two-electron') return `|r_1 - r_2| \\le r_{12} \\le r_1 + r_2,\\ \\text{S state, ${inputs.exchange === 'antisymmetric' ? 'antisymmetric (triplet)' : 'symmetric (singlet)'} under } r_1 \\leftrightarrow r_2`;
   if (typeof space === 'object') {
     return Object.entries(space)
       .map(([c, range]) => `${coordinateTex(c)} ${Array.isArray(range) ? `\\in [${range[0]}, ${range[1]}]` : range === 'line' ? '\\in \\mathbb{R}' : '\\ge 0'}`)
@@ -215,6 +217,7 @@ function renderResults(result: BlockResult, verdict: Verdict): string {
   if (ref) {
     const nextName = level && ref.level.symmetry ? `next ${ref.level.symmetry} level` : 'next level';
     rows.push(row(`reference (${ref.method}${level ? `, ${level}` : ''})`, `${at(ref.energy)}${ref.excited !== null ? `; ${nextName} ${at(ref.excited)}` : ''}`));
+    if (result.binding) rows.push(row('binding threshold (one-electron ion)', `${at(result.binding.threshold)}: ${escapeHtml(result.binding.detail)}`));
     if (ref.published) rows.push(row('published', `${formatNumber(ref.published.energy)}${u} — ${escapeHtml(ref.published.source)}`));
   }
   if (result.states.length > 1) {
@@ -263,7 +266,13 @@ function renderAudit(result: BlockResult, context: PanelContext): string {
   if (d) {
     items.push(`energy evaluations ${d.energyEvaluations}, trial evaluations ${d.trialEvaluations}, plot evaluations ${d.plotEvaluations}`);
     if (d.optimiser) items.push(`optimiser ${escapeHtml(d.optimiser.method)}: ${d.optimiser.iterations} iterations, ${d.optimiser.evaluations} evaluations, ${d.optimiser.starts} local search${d.optimiser.starts > 1 ? 'es' : ''}, converged ${d.optimiser.converged}`);
-    if (d.grid) items.push(`grid: ${d.grid.size} points, ${d.grid.elements} elements of order ${d.grid.elementOrder}, ${d.grid.refinements} refinements, domain [${formatNumber(d.grid.domain[0], 6)}, ${formatNumber(d.grid.domain[1], 6)}] ${escapeHtml(result.inputs?.lengthUnit ?? 'bohr')}, last change ${d.grid.errorEstimate.map((e) => formatNumber(e, 2)).join(', ')}`);
+    const basis = d.grid?.correlated;
+    if (basis) {
+      items.push(
+        `correlated-basis reference: H read as -${formatNumber(basis.charge, 8)}/r1 - ${formatNumber(basis.charge, 8)}/r2 + ${formatNumber(basis.coupling, 8)}/r12 (atomic units); ${d.grid!.size} functions r1^i r2^j r12^k exp(-alpha r1 - beta r2), symmetrised, ${basis.dropped} dropped as linearly dependent; exponent sets ${basis.sets.map((s) => `(alpha ${formatNumber(s.alpha, 4)}, beta ${formatNumber(s.beta, 4)}, i+j+k <= ${s.omega})`).join(', ')}; settled to ${formatNumber(basis.relTol, 2)} relative over the sizes ${basis.steps.map((s) => `${s.size}: ${formatNumber(s.levels[0], 12)}${s.levels[1] === null ? '' : ` / ${formatNumber(s.levels[1], 12)}`}`).join('; ')}`,
+      );
+    }
+    else if (d.grid) items.push(`grid: ${d.grid.size} points, ${d.grid.elements} elements of order ${d.grid.elementOrder}, ${d.grid.refinements} refinements, domain [${formatNumber(d.grid.domain[0], 6)}, ${formatNumber(d.grid.domain[1], 6)}] ${escapeHtml(result.inputs?.lengthUnit ?? 'bohr')}, last change ${d.grid.errorEstimate.map((e) => formatNumber(e, 2)).join(', ')}`);
     if (d.energyError !== null) items.push(`quadrature error estimate of E ${formatNumber(d.energyError, 3)} ${escapeHtml(result.energy?.unit ?? 'hartree')}`);
     if (d.sensitivityMs) items.push(`sensitivities ${formatNumber(d.sensitivityMs, 3)} ms: Hellmann–Feynman at the optimum, each checked by a central difference of re-optimised energies (grid reference skipped there)`);
   }

@@ -88,10 +88,11 @@ export const blockSchema = z
     system: z.string({ invalid_type_error: 'must be text: the name of the physical system, shared by the blocks about it' }).regex(/^[A-Za-z0-9][A-Za-z0-9_-]*$/, 'must be a slug: letters, digits, - and _').optional(),
     units: z.union([z.literal('atomic'), z.record(z.string())], { errorMap: () => ({ message: 'must be atomic or a map such as { length: nm, energy: meV }' }) }).optional(),
     space: z
-      .union([z.enum(['line', 'half-line', 'radial', 'plane', 'axial']), z.record(name, coordinateRange)], {
-        errorMap: () => ({ message: 'must be one of line, half-line, radial, plane, axial, or a map of 2 or 3 coordinates such as { x: line, y: [0, 2] }' }),
+      .union([z.enum(['line', 'half-line', 'radial', 'plane', 'axial', 'two-electron']), z.record(name, coordinateRange)], {
+        errorMap: () => ({ message: 'must be one of line, half-line, radial, plane, axial, two-electron, or a map of 2 or 3 coordinates such as { x: line, y: [0, 2] }' }),
       })
       .optional(),
+    exchange: z.enum(['symmetric', 'antisymmetric'], { errorMap: () => ({ message: 'must be symmetric (spin singlet) or antisymmetric (spin triplet)' }) }).optional(),
     box: z.tuple([quantity, quantity], { errorMap: () => ({ message: 'must be [a, b] with two numbers' }) }).optional(),
     'angular-momentum': z.number({ invalid_type_error: 'must be a whole number (l = 0, 1, 2, ... on radial; m = 0, +-1, +-2, ... on plane)' }).int('must be an integer').optional(),
     mass: z

@@ -215,6 +215,7 @@ function quantitySource(raw: RawBlock & { units: Record<string, string> }, uncer
     space: raw.space ?? 'line',
     box: raw.box ? [at(['box', 0], raw.box[0]), at(['box', 1], raw.box[1])] : null,
     angularMomentum: raw['angular-momentum'] ?? 0,
+    exchange: exchangeOf(raw, line, lineOf),
     // A mass per coordinate is refused in quantity mode (meaningProblems), so the mass here is one quantity.
     mass: typeof raw.mass === 'object' ? null : optional(['mass'], raw.mass),
     constants: Object.fromEntries(Object.entries(raw.constants ?? {}).map(([k, v]) => [k, at(['constants', k], v)])),
@@ -321,6 +322,8 @@ function spaceProblems(raw: RawBlock, quantityMode: boolean): Array<[Path, strin
     }
     if (raw.basis !== undefined) found.push([['basis'], 'a basis (linear method) is not yet available on a product space: write one trial']);
   }
+  if (space === 'two-electron' && raw.basis !== undefined) found.push([['basis'], 'a basis (linear method) is not yet available on space two-electron: write one trial (the build runs its own correlated basis as the reference)']);
+  if (raw.exchange !== undefined && space !== 'two-electron') found.push([['exchange'], `exchange applies to space two-electron only, not ${spaceLabel(space)}`]);
   if (space === 'axial' && raw.basis !== undefined) found.push([['basis'], 'a basis (linear method) is not yet available on space axial: write one trial']);
   const coordinates = coordinatesOf(space);
   for (const [group, names] of [['constants', Object.keys(raw.constants ?? {})], ['parameters', Object.keys(raw.parameters ?? {})]] as const) {
@@ -330,7 +333,7 @@ function spaceProblems(raw: RawBlock, quantityMode: boolean): Array<[Path, strin
   }
   // In quantity mode text is a mass with its unit; it depends on the coordinates only where it names one.
   const massNamesCoordinate = typeof raw.mass === 'string' && (!quantityMode || coordinatesOf(space).some((c) => namesCoordinate(raw.mass as string, c)));
-  if (massNamesCoordinate && (typeof space === 'object' || space === 'axial')) {
+  if ((massNamesCoordinate && (typeof space === 'object' || space === 'axial')) || (space === 'two-electron' && typeof raw.mass === 'string' && !quantityMode)) {
     found.push([['mass'], 'a mass that depends on the coordinates is available on spaces of one coordinate only; give a number (or a map of numbers per coordinate on a product space)']);
   }
   if (typeof raw.mass === 'object') {
@@ -342,6 +345,12 @@ function spaceProblems(raw: RawBlock, quantityMode: boolean): Array<[Path, strin
     if (quantityMode) found.push([['mass'], 'a mass per coordinate is not yet read in quantity mode: write the block in atomic units']);
   }
   return found;
+}
+
+/** The declared exchange symmetry of a two-electron block (symmetric unless written), with the line that declares it. */
+function exchangeOf(raw: RawBlock, line: number, lineOf: (path: Path) => number): BlockSpec['exchange'] {
+  if (raw.space !== 'two-electron') return null;
+  return raw.exchange === undefined ? { value: 'symmetric', line } : { value: raw.exchange, line: lineOf(['exchange']) };
 }
 
 /** Whether the text holds the coordinate as a name of its own (not inside exp or max). */
@@ -373,6 +382,7 @@ function toSpec(raw: AtomicBlock, uncertain: AtomicUncertain[], line: number, do
     space: raw.space ?? 'line',
     box: raw.box ?? null,
     angularMomentum: raw['angular-momentum'] ?? 0,
+    exchange: exchangeOf(raw, line, lineOf),
     mass: typeof raw.mass === 'string' ? { text: raw.mass, line: lineOf(['mass']) } : typeof raw.mass === 'object' ? 1 : (raw.mass ?? 1),
     masses: typeof raw.mass === 'object' ? (raw.mass as Record<string, number>) : null,
     constants: raw.constants ?? {},

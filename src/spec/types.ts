@@ -9,18 +9,19 @@ export type CoordinateRange = 'line' | 'half-line' | [number, number];
 /** 2 or 3 named Cartesian coordinates, in the order written, each with its range. */
 export type ProductSpace = Record<string, CoordinateRange>;
 
-export type Space = LineSpace | 'axial' | ProductSpace;
+export type Space = LineSpace | 'axial' | 'two-electron' | ProductSpace;
 
 /** The coordinates a space's expressions are written in, in point order. */
 export function coordinatesOf(space: Space): string[] {
   if (typeof space === 'object') return Object.keys(space);
   if (space === 'axial') return ['rho', 'z'];
+  if (space === 'two-electron') return ['r1', 'r2', 'r12'];
   return [space === 'radial' || space === 'plane' ? 'r' : 'x'];
 }
 
 /** Whether the space has one coordinate (the engine's line spaces). */
 export function isLineSpace(space: Space): space is LineSpace {
-  return typeof space === 'string' && space !== 'axial';
+  return typeof space === 'string' && space !== 'axial' && space !== 'two-electron';
 }
 
 /** The space as a word for messages: its name, or the product of its coordinates. */
@@ -115,6 +116,8 @@ export interface BlockSpec {
   space: Space;
   box: [number, number] | null;
   angularMomentum: number;
+  /** two-electron only: the declared symmetry of the trial under r1 <-> r2 and the line that declares it (the block's when defaulted); null elsewhere. */
+  exchange: { value: 'symmetric' | 'antisymmetric'; line: number } | null;
   /**
    * The mass in electron masses: a number, or an expression of the coordinate (in bohr) for a position-dependent
    * mass (heterostructures), compiled by compileBlock; in quantity mode its units are bound in `constants`. With a

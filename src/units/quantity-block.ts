@@ -23,6 +23,7 @@ export interface QuantityBlockSource {
   space: Space;
   box: [QuantitySource, QuantitySource] | null;
   angularMomentum: number;
+  exchange?: BlockSpec['exchange'];
   mass: QuantitySource | null;
   constants: Record<string, QuantitySource>;
   potential: SourceText;
@@ -218,6 +219,7 @@ export function convertQuantityBlock(file: string, block: QuantityBlockSource): 
       space: block.space,
       box,
       angularMomentum: block.angularMomentum,
+      exchange: block.exchange ?? null,
       mass,
       masses: null,
       constants: { ...bound, ...declared },

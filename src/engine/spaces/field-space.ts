@@ -1,6 +1,9 @@
 import type { CubatureAxis, CubatureResult, ProductIntegrand } from '../cubature/integrate-product.ts';
 import type { ProductGridProblem } from '../grid-nd/product-grid-levels.ts';
-import type { FieldTrial, PointFunction } from '../problem.ts';
+import type { FieldGridReference } from '../field-grid-reference.ts';
+import type { FieldPlacement } from '../field-probe.ts';
+import type { FieldProblem, FieldTrial, PointFunction } from '../problem.ts';
+import type { GradedCheck } from '../status.ts';
 import type { CoordinateSpace } from './space.ts';
 
 /** Where a trial of several coordinates lives along one axis: through its peak, the centre and length scale. */
@@ -17,7 +20,8 @@ export interface AxisPlacement {
  * over it, and how to integrate over it. The evaluation reads such a space only through this.
  */
 export interface FieldSpace {
-  name: 'axial' | 'product';
+  name: 'axial' | 'product' | 'two-electron';
+  /** The coordinates the trial and potential are written in (the axes' own unless `pointOf` maps them). */
   coordinates: string[];
   axes: CoordinateSpace[];
   /** N, T and V integrands (the kinetic one already divided by 2m: masses may differ per axis). */
@@ -30,8 +34,28 @@ export interface FieldSpace {
   integrate(integrand: ProductIntegrand, components: number, placements: AxisPlacement[], options: FieldCubatureOptions): FieldCubatureResult;
   /** Points along the axis where the potential is singular although no switch function marks them (axial: nuclei on the axis). */
   singularities(potential: PointFunction, placements: AxisPlacement[]): Array<{ axis: number; points: number[] }>;
-  /** The product-grid problem of H on this space, its element edges at the split points and its scales from the placement. */
-  gridProblem(potential: PointFunction, placements: AxisPlacement[]): ProductGridProblem;
+  /**
+   * The product-grid problem of H on this space, its element edges at the split points and its scales from the
+   * placement; absent on a space that brings its own `reference`.
+   */
+  gridProblem?(potential: PointFunction, placements: AxisPlacement[]): ProductGridProblem;
+  /** The space's own independent reference, where it is not a product grid (two-electron: a correlated basis). */
+  reference?(problem: FieldProblem): FieldGridReference;
+  /**
+   * Where the axes are not the trial's coordinates (two-electron: Duffy coordinates of the perimetric octant for a
+   * trial in r1, r2, r12), the trial's point at a point of the axes; the integrands map their points themselves.
+   */
+  pointOf?(axisPoint: ArrayLike<number>, out: Float64Array): Float64Array;
+  /** Checks of the trial this space adds (two-electron: its symmetry under r1 <-> r2). */
+  trialChecks?(problem: FieldProblem, placement: FieldPlacement, where: string): GradedCheck[];
+}
+
+/** The trial or potential as a function of a point of the space's axes. */
+export function onAxes(space: FieldSpace, f: PointFunction): PointFunction {
+  const { pointOf } = space;
+  if (!pointOf) return f;
+  const at = new Float64Array(space.coordinates.length);
+  return (point) => f(pointOf(point, at));
 }
 
 /** The grid hint of an axis from where the trial lives along it. */
