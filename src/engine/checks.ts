@@ -5,6 +5,7 @@ import type { MinimizeResult } from './minimize.ts';
 import { describeLevel, GROUND_LEVEL, type TargetLevel } from './parity.ts';
 import type { ProblemBase } from './problem.ts';
 import { gradedCheck, measured, type GradedCheck } from './status.ts';
+import { ENERGY_RELATIVE_ERROR_LIMIT } from './tolerances.ts';
 
 /** What the checks shared by the trial and the basis evaluations read from a problem. */
 export type CheckedProblem = Pick<ProblemBase, 'parameters' | 'reference' | 'claim' | 'display'>;
@@ -165,4 +166,18 @@ export function boundChecks(energy: number, lower: number | null, overlap: numbe
     );
   }
   return checks;
+}
+
+/**
+ * The energy's error estimate against the problem's energy scale: |E|, or <T> where E passes near the energy zero (a
+ * level at zero, as in a sweep through it, is no less accurate for it; common practice).
+ */
+export function integralsCheck(errorEstimate: number, energy: number, kinetic: number | null, what: string, show: ValueDisplay): GradedCheck {
+  const scale = Math.max(Math.abs(energy), Math.abs(kinetic ?? 0), Number.MIN_VALUE);
+  const relError = errorEstimate / scale;
+  const against = Math.abs(energy) >= Math.abs(kinetic ?? 0) ? 'relative' : 'relative to <T>';
+  return measured(
+    gradedCheck('integrals-converged', relError <= ENERGY_RELATIVE_ERROR_LIMIT, `${what} ${show.energy(errorEstimate, 3)} (${g(relError, 3)} ${against}; limit ${ENERGY_RELATIVE_ERROR_LIMIT})`, 'unsettled'),
+    { value: relError, limit: ENERGY_RELATIVE_ERROR_LIMIT, relation: '<=', quantity: 'ratio' },
+  );
 }

@@ -1,7 +1,7 @@
 import { findBreakpoints } from './breakpoints.ts';
-import { claimChecks, optimiserChecks, referenceChecks } from './checks.ts';
+import { claimChecks, integralsCheck, optimiserChecks, referenceChecks } from './checks.ts';
 import { groundOverlap, invalidResult, type EngineResult } from './evaluate-problem.ts';
-import { ATOMIC_DISPLAY, g } from './format.ts';
+import { ATOMIC_DISPLAY } from './format.ts';
 import { gridReference } from './grid-reference.ts';
 import { optimiseLinearBasis, solveLinearBasis, type LinearBasisProblem, type LinearBasisResult } from './linear-basis.ts';
 import { hamiltonianSwitches, massPositiveCheck } from './mass-profile.ts';
@@ -10,7 +10,7 @@ import { plotData } from './plot-data.ts';
 import type { BasisProblem } from './problem.ts';
 import { spaceOf } from './spaces/space-of.ts';
 import { gradedCheck, statusOf, type GradedCheck } from './status.ts';
-import { COMPARISON_FLOOR, ENERGY_RELATIVE_ERROR_LIMIT } from './tolerances.ts';
+import { COMPARISON_FLOOR } from './tolerances.ts';
 import { probeTrial } from './trial-probe.ts';
 import { GROUND_LEVEL } from './parity.ts';
 import { virialReport } from './virial.ts';
@@ -72,15 +72,7 @@ export function evaluateBasisProblem(problem: BasisProblem): EngineResult {
       'unsettled',
     ),
   ];
-  const relError = ground.errorEstimate / Math.max(Math.abs(energy), Number.MIN_VALUE);
-  checks.push(
-    gradedCheck(
-      'integrals-converged',
-      relError <= ENERGY_RELATIVE_ERROR_LIMIT,
-      `lowest level's error estimate from the matrix elements ${show.energy(ground.errorEstimate, 3)} (${g(relError, 3)} relative; limit ${ENERGY_RELATIVE_ERROR_LIMIT})`,
-      'unsettled',
-    ),
-  );
+  checks.push(integralsCheck(ground.errorEstimate, energy, null, "lowest level's error estimate from the matrix elements", show));
   if (optimiser) checks.push(...optimiserChecks(problem, optimiser));
 
   // The lowest combination at the optimum (normalised: c^T S c = 1): where it lives guides the grid, and it is

@@ -1,5 +1,5 @@
 import { templeBound, weinsteinInterval } from './bounds.ts';
-import { boundChecks, claimChecks, optimiserChecks, referenceChecks } from './checks.ts';
+import { boundChecks, claimChecks, integralsCheck, optimiserChecks, referenceChecks } from './checks.ts';
 import { invalidResult, type EngineResult } from './evaluate-problem.ts';
 import { fieldExpectation, fieldVariance, placeField, searchFieldExpectation, type FieldExpectation } from './field-expectation.ts';
 import { fieldGridReference, productOverlap } from './field-grid-reference.ts';
@@ -8,7 +8,7 @@ import { minimizeBounded, type MinimizeResult } from './minimize.ts';
 import { GROUND_LEVEL } from './parity.ts';
 import type { FieldProblem } from './problem.ts';
 import { gradedCheck, statusOf, type GradedCheck } from './status.ts';
-import { COMPARISON_FLOOR, ENERGY_RELATIVE_ERROR_LIMIT, WALL_TOLERANCE } from './tolerances.ts';
+import { COMPARISON_FLOOR, WALL_TOLERANCE } from './tolerances.ts';
 
 /**
  * Evaluates a trial on a space of several coordinates (axial, a Cartesian product) with the same steps, checks and
@@ -53,15 +53,7 @@ export function evaluateFieldProblem(problem: FieldProblem): EngineResult {
 
   const checks: GradedCheck[] = [...optimumChecks];
   const energy = optimum.energy;
-  const relError = optimum.errorEstimate / Math.max(Math.abs(energy), Number.MIN_VALUE);
-  checks.push(
-    gradedCheck(
-      'integrals-converged',
-      relError <= ENERGY_RELATIVE_ERROR_LIMIT,
-      `energy cubature error estimate ${show.energy(optimum.errorEstimate, 3)} (${g(relError, 3)} relative; limit ${ENERGY_RELATIVE_ERROR_LIMIT})`,
-      'unsettled',
-    ),
-  );
+  checks.push(integralsCheck(optimum.errorEstimate, energy, optimum.kinetic, 'energy cubature error estimate', show));
   if (optimiser) checks.push(...optimiserChecks(problem, optimiser));
   const variance = fieldVariance(problem, optimum);
 

@@ -1,7 +1,7 @@
 import { templeBound, weinsteinInterval } from './bounds.ts';
 import { findBreakpoints } from './breakpoints.ts';
-import { boundChecks, claimChecks, optimiserChecks, referenceChecks } from './checks.ts';
-import { COMPARISON_FLOOR, ENERGY_RELATIVE_ERROR_LIMIT, WALL_TOLERANCE } from './tolerances.ts';
+import { boundChecks, claimChecks, integralsCheck, optimiserChecks, referenceChecks } from './checks.ts';
+import { COMPARISON_FLOOR, WALL_TOLERANCE } from './tolerances.ts';
 import { expectation, placedExpectation, searchExpectation, type Expectation } from './expectation.ts';
 import { ATOMIC_DISPLAY, g, type ValueDisplay } from './format.ts';
 import type { GridLevels } from './grid-levels.ts';
@@ -104,15 +104,7 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
 
   const checks: GradedCheck[] = [...optimumChecks];
   const energy = optimum.energy;
-  const relError = optimum.errorEstimate / Math.max(Math.abs(energy), Number.MIN_VALUE);
-  checks.push(
-    gradedCheck(
-      'integrals-converged',
-      relError <= ENERGY_RELATIVE_ERROR_LIMIT,
-      `energy quadrature error estimate ${show.energy(optimum.errorEstimate, 3)} (${g(relError, 3)} relative; limit ${ENERGY_RELATIVE_ERROR_LIMIT})`,
-      'unsettled',
-    ),
-  );
+  checks.push(integralsCheck(optimum.errorEstimate, energy, optimum.kinetic, 'energy quadrature error estimate', show));
   if (optimiser) checks.push(...optimiserChecks(problem, optimiser));
 
   problem.trial.setParameters(best);

@@ -11,7 +11,11 @@ import { renderPlots } from './plots.ts';
 import { renderSystemLink, type SystemLink } from './review-html.ts';
 import { renderResponse, renderSweep } from './sweep-panel.ts';
 
-const tex = (source: string, display = false) => katex.renderToString(source, { displayMode: display, throwOnError: false, output: 'htmlAndMathml' });
+// A display equation too wide for a phone scrolls inside the panel; tabindex lets a keyboard reach that scroll.
+const tex = (source: string, display = false) => {
+  const html = katex.renderToString(source, { displayMode: display, throwOnError: false, output: 'htmlAndMathml' });
+  return display ? html.replace('<span class="katex-display">', '<span class="katex-display" tabindex="0">') : html;
+};
 
 /** Each status has a word and a shape of its own, so it reads in print and without colour. */
 export const STATUS_LOOK: Record<BlockResult['status'], { word: string; shape: string }> = {

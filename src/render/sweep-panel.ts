@@ -9,7 +9,7 @@ export function renderSweep(result: BlockResult): string {
   const energyUnit = escapeHtml(result.energy?.unit ?? 'hartree');
   const constant = `${escapeHtml(sweep.constant)}${sweep.unit ? ` (${escapeHtml(sweep.unit)})` : ''}`;
   const varied = Object.entries(sweep.points.find((p) => p.result.energy)?.result.parameters ?? {}).filter(([, p]) => p.varied);
-  const head = ['', constant, 'status', `E (${energyUnit})`, 'reference', 'lower bound', ...varied.map(([name, p]) => `${escapeHtml(name)}${p.unit ? ` (${escapeHtml(p.unit)})` : ''}`)];
+  const head = ['mark', constant, 'status', `E (${energyUnit})`, 'reference', 'lower bound', ...varied.map(([name, p]) => `${escapeHtml(name)}${p.unit ? ` (${escapeHtml(p.unit)})` : ''}`)];
   const rows = sweep.points.map(({ value, result: r }, i) =>
     [
       i === sweep.worst && sweep.points.length > 1 ? 'worst' : '',
@@ -21,7 +21,8 @@ export function renderSweep(result: BlockResult): string {
       ...varied.map(([name]) => formatNumber(r.parameters[name]?.value ?? null, 8)),
     ].map((cell) => `<td>${cell}</td>`).join(''),
   );
-  const table = `<table class="gw-sweep"><caption>Sweep over ${constant}: every point a full evaluation; the block takes the worst point's status. Model estimates, not a substitute for the group's validated procedures.</caption><thead><tr>${head.map((h) => `<th scope="col">${h}</th>`).join('')}</tr></thead><tbody>${rows.map((r) => `<tr>${r}</tr>`).join('')}</tbody></table>`;
+  // Wide tables scroll inside the panel on a phone instead of widening the page; tabindex lets a keyboard scroll them.
+  const table = `<div class="gw-scroll" tabindex="0"><table class="gw-sweep"><caption>Sweep over ${constant}: every point a full evaluation; the block takes the worst point's status. Model estimates, not a substitute for the group's validated procedures.</caption><thead><tr>${head.map((h) => `<th scope="col">${h}</th>`).join('')}</tr></thead><tbody>${rows.map((r) => `<tr>${r}</tr>`).join('')}</tbody></table></div>`;
   return [table, `<div class="gw-plots">${[energyCurve(result, constant), ...varied.map(([name, p]) => parameterCurve(result, name, p.unit, constant))].join('\n')}</div>`].join('\n');
 }
 
@@ -81,7 +82,7 @@ export function renderResponse(result: BlockResult): string {
   const summary = u
     ? `<p class="gw-uncertainty">E = ${formatNumber(u.energy)} ± ${formatNumber(u.uncertainty, 3)} ${energyUnit} (first-order propagation, inputs uncorrelated; re-evaluation at c ± u gives ± ${formatNumber(u.reevaluated, 3)})${u.note ? `: ${escapeHtml(u.note)}` : ''}. The claim, if any, is checked within its tolerance plus this uncertainty.</p>`
     : '';
-  return `<table class="gw-sensitivities"><caption>Sensitivities dE/dc at the optimum (${per} per input unit): Hellmann–Feynman ⟨∂H/∂c⟩, checked by a central difference of re-optimised energies</caption><thead><tr><th scope="col">input</th><th scope="col">Hellmann–Feynman</th><th scope="col">finite difference</th><th scope="col">agree</th><th scope="col">|dE/dc| u (${energyUnit})</th><th scope="col">note</th></tr></thead><tbody>${rows.join('')}</tbody></table>${summary}`;
+  return `<div class="gw-scroll" tabindex="0"><table class="gw-sensitivities"><caption>Sensitivities dE/dc at the optimum (${per} per input unit): Hellmann–Feynman ⟨∂H/∂c⟩, checked by a central difference of re-optimised energies</caption><thead><tr><th scope="col">input</th><th scope="col">Hellmann–Feynman</th><th scope="col">finite difference</th><th scope="col">agree</th><th scope="col">|dE/dc| u (${energyUnit})</th><th scope="col">note</th></tr></thead><tbody>${rows.join('')}</tbody></table></div>${summary}`;
 }
 
 function agreement(s: Sensitivity): string {

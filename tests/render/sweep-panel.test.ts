@@ -54,7 +54,7 @@ describe('the panel and CSV of a sweep and of uncertain inputs', () => {
   it('shows each sensitivity beside its finite-difference check, and E +- dE', () => {
     expect(html).toContain('<table class="gw-sensitivities"');
     // dE/dF = -F = -0.5; u(E) = |dE/dF| * 0.1 = 0.05.
-    expect(html).toMatch(/F = 0\.5 ± 0\.1<\/th><td>-0\.5/);
+    expect(html).toMatch(/F = 0\.5 ± 0\.1<\/th><td>−0\.5/);
     expect(html).toMatch(/E = 0\.375 ± 0\.05 hartree/);
     expect(html).toContain('sensitivities');
   });

@@ -183,7 +183,10 @@ describe.runIf(run)('the demo log in a real browser', () => {
     const lines = csv.trim().split('\r\n');
     expect(lines[0].split(',').slice(0, 7)).toEqual(['file', 'title', 'author', 'date', 'block', 'line', 'status']);
     const index = await (await fetch(`${base}/`)).text();
-    expect(lines.length - 1).toBe(index.match(/<tr data-status=/g)?.length);
+    // A sweep has a row per point; every block of the index is there once.
+    const fields = (line: string) => Array.from(line.matchAll(/("(?:[^"]|"")*"|[^,]*)(?:,|$)/g), (m) => m[1]);
+    const blocks = new Set(lines.slice(1).map((line) => `${fields(line)[0]} ${fields(line)[4]}`));
+    expect(blocks.size).toBe(index.match(/<tr data-status=/g)?.length);
   });
 
   it('runs no script from a hostile record', async () => {
