@@ -145,11 +145,14 @@ export function boundChecks(energy: number, lower: number | null, overlap: numbe
   const checks: GradedCheck[] = [];
   if (lower !== null) {
     checks.push(
-      gradedCheck(
-        'temple-below-grid',
-        lower <= e0 + tolerance,
-        `Temple's lower bound ${show.energy(lower)} against ${gridLevelName(target)} ${show.energy(e0)} (with E1 = ${show.energy(nextLevel ?? NaN)})`,
-        'unsettled',
+      measured(
+        gradedCheck(
+          'temple-below-grid',
+          lower <= e0 + tolerance,
+          `Temple's lower bound ${show.energy(lower)} against ${gridLevelName(target)} ${show.energy(e0)} (with E1 = ${show.energy(nextLevel ?? NaN)})`,
+          'unsettled',
+        ),
+        { value: lower, limit: e0 + tolerance, relation: '<=', quantity: 'energy' },
       ),
     );
   }
@@ -157,11 +160,9 @@ export function boundChecks(energy: number, lower: number | null, overlap: numbe
   if (overlap !== null && floor !== null) {
     const state = target.symmetry === null ? 'ground state' : `state of the ${describeLevel(target)}`;
     checks.push(
-      gradedCheck(
-        'eckart-overlap',
-        overlap >= floor - 1e-6,
-        `overlap with the grid ${state} ${g(overlap, 8)} (Eckart's floor ${g(floor, 8)})`,
-        'unsettled',
+      measured(
+        gradedCheck('eckart-overlap', overlap >= floor - 1e-6, `overlap with the grid ${state} ${g(overlap, 8)} (Eckart's floor ${g(floor, 8)})`, 'unsettled'),
+        { value: overlap, limit: floor - 1e-6, relation: '>=', quantity: 'ratio' },
       ),
     );
   }

@@ -14,7 +14,7 @@ import type { VariationalProblem } from './problem.ts';
 import { spaceOf } from './spaces/space-of.ts';
 import type { CoordinateSpace } from './spaces/space.ts';
 import { findNonFiniteFactor, probeTrial } from './trial-probe.ts';
-import { gradedCheck, statusOf, type GradedCheck, type Status } from './status.ts';
+import { gradedCheck, measured, statusOf, type GradedCheck, type Status } from './status.ts';
 import { energyVariance, type VarianceResult } from './variance.ts';
 import { virialReport, type Virial } from './virial.ts';
 
@@ -203,11 +203,9 @@ function trialChecks(problem: VariationalProblem, domain: CoordinateSpace, at: E
     // A trial that is zero everywhere has no peak; its zero at the wall is not the failure to report.
     const ratio = psi === 0 ? 0 : Math.abs(psi) / at.probe.peakAmplitude;
     checks.push(
-      gradedCheck(
-        'hard-wall',
-        Number.isFinite(psi) && ratio <= WALL_TOLERANCE,
-        `trial at the wall ${show.length(wall)} is ${g(psi, 4)} (${g(ratio, 3)} of its peak; must vanish) at ${where}`,
-        'invalid',
+      measured(
+        gradedCheck('hard-wall', Number.isFinite(psi) && ratio <= WALL_TOLERANCE, `trial at the wall ${show.length(wall)} is ${g(psi, 4)} (${g(ratio, 3)} of its peak; must vanish) at ${where}`, 'invalid'),
+        { value: ratio, limit: WALL_TOLERANCE, relation: '<=', quantity: 'ratio' },
       ),
     );
   }
