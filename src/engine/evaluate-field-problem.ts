@@ -3,6 +3,7 @@ import { boundChecks, claimChecks, optimiserChecks, referenceChecks } from './ch
 import { invalidResult, type EngineResult } from './evaluate-problem.ts';
 import { fieldExpectation, fieldVariance, placeField, searchFieldExpectation, type FieldExpectation } from './field-expectation.ts';
 import { fieldGridReference, productOverlap } from './field-grid-reference.ts';
+import { fieldPlotData } from './field-plot-data.ts';
 import { ATOMIC_DISPLAY, g } from './format.ts';
 import { minimizeBounded, type MinimizeResult } from './minimize.ts';
 import type { FieldProblem } from './problem.ts';
@@ -74,6 +75,12 @@ export function evaluateFieldProblem(problem: FieldProblem): EngineResult {
   if (problem.claim) checks.push(...claimChecks(problem, energy, best));
 
   const { status, message } = statusOf(checks);
+  const timings = { variationalMs: performance.now() - started - referenceMs, referenceMs };
+  const scanAt = searchFieldExpectation(problem, optimum);
+  const plots = fieldPlotData(
+    { problem, optimum: best, energyAt: (p) => scanAt(p).energy, kinetic: optimum.kinetic, curvature: optimiser?.hessian ?? null, norm: optimum.norm, placement, grid: product },
+    problem.plots,
+  );
   return {
     status,
     message,
@@ -90,8 +97,8 @@ export function evaluateFieldProblem(problem: FieldProblem): EngineResult {
     optimiser,
     checks,
     counts: { ...counts, trialEvaluations: counts.trialEvaluations + variance.evaluations },
-    timings: { variationalMs: performance.now() - started - referenceMs, referenceMs },
-    plots: null,
+    timings,
+    plots,
     states: [{ energy, errorEstimate: optimum.errorEstimate, reference: grid?.levels[0] ?? null }],
     basis: null,
   };

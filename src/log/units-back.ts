@@ -1,3 +1,4 @@
+import type { FieldCut, FieldDensity } from '../engine/field-plot-data.ts';
 import { g, type ValueDisplay } from '../engine/format.ts';
 import type { QuantityMode } from '../spec/types.ts';
 import type { BlockResult } from './result-types.ts';
@@ -60,6 +61,7 @@ export function inBlockUnits(result: BlockResult, units: QuantityMode): BlockRes
         samples: plots.density.samples.map((s) => ({ x: s.x * L, trial: s.trial / L, potential: maybe(s.potential) })),
         grid: plots.density.grid.map((g) => ({ x: g.x * L, density: g.density / L })),
       },
+      field: plots.field && fieldInUnits(plots.field, L, maybe),
     },
     diagnostics: diagnostics && {
       ...diagnostics,
@@ -67,6 +69,22 @@ export function inBlockUnits(result: BlockResult, units: QuantityMode): BlockRes
       grid: diagnostics.grid && { ...diagnostics.grid, domain: [diagnostics.grid.domain[0] * L, diagnostics.grid.domain[1] * L] },
     },
     quantity: units,
+  };
+}
+
+/** Every coordinate of a space of several coordinates is a length; the density is per length to the space's dimension. */
+function fieldInUnits(field: FieldDensity, L: number, energy: (v: number | null) => number | null): FieldDensity {
+  const perVolume = L ** field.dimension;
+  const cut = (c: FieldCut): FieldCut => ({
+    coordinate: c.coordinate,
+    samples: c.samples.map((s) => ({ x: s.x * L, trial: s.trial / perVolume, potential: energy(s.potential) })),
+    grid: c.grid.map((g) => ({ x: g.x * L, density: g.density / perVolume })),
+  });
+  return {
+    ...field,
+    through: field.through.map((x) => x * L),
+    picture: { x: field.picture.x.map((x) => x * L), y: field.picture.y.map((y) => y * L), density: field.picture.density.map((v) => v / perVolume) },
+    cuts: field.cuts.map(cut),
   };
 }
 

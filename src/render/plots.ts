@@ -1,29 +1,24 @@
 import * as Plot from '@observablehq/plot';
-import { parseHTML } from 'linkedom';
-import type { DensityProfile, EnergyScan } from '../engine/plot-data.ts';
+import type { EnergyScan } from '../engine/plot-data.ts';
 import type { BlockResult } from '../log/result-types.ts';
+import { densityPlot } from './density-plot.ts';
+import { fieldPlots } from './field-plots.ts';
 import { formatNumber } from './html.ts';
+import { draw, INK, type PlotUnits } from './plot-frame.ts';
 
-/** Plot draws into a DOM; on the server a small standalone one is enough. */
-const { document } = parseHTML('<!doctype html><html><body></body></html>');
-
-const WIDTH = 430;
-const HEIGHT = 270;
-// Black and white print: marks differ by line style and symbol, never by colour alone.
-const INK = '#111';
-const STYLE = { fontSize: '11px', background: 'white', color: INK, overflow: 'visible' };
-
-export interface PlotUnits {
-  energy: string;
-  length: string;
-  parameters: Record<string, string | null>;
-}
+export type { PlotUnits } from './plot-frame.ts';
 
 /** The scan and density plots of a block as inline SVG (empty when the block has no plot data). */
 export function renderPlots(result: BlockResult, units: PlotUnits): string[] {
   if (!result.plots || result.energy === null) return [];
   const svgs = result.plots.scans.map((scan) => scanPlot(scan, result, units));
-  if (result.plots.density) svgs.push(densityPlot(result.plots.density, result, units));
+  const { density, field } = result.plots;
+  if (density) {
+    const q = density.coordinate;
+    const caption = `Thick grey: potential V(${q}). Shaded with line: trial density${q === 'r' ? ' r²|R|²' : ' |ψ|²'}; open circles: grid ground-state density at its nodes; both scaled and drawn from the level E. Dashed: reference ground energy.`;
+    svgs.push(densityPlot(density, q, caption, result, units));
+  }
+  if (field) svgs.push(...fieldPlots(field, result, units));
   if (result.states.length > 1) svgs.push(levelPlot(result, units));
   return svgs;
 }
@@ -54,40 +49,6 @@ function scanPlot(scan: EnergyScan, result: BlockResult, units: PlotUnits): stri
   );
 }
 
-function densityPlot(profile: DensityProfile, result: BlockResult, units: PlotUnits): string {
-  const energy = result.energy!.value;
-  const kinetic = Math.abs(result.components?.kinetic ?? 1) || 1;
-  const reference = result.reference?.energy ?? null;
-  const potentials = profile.samples.flatMap((s) => (s.potential === null ? [] : [s.potential]));
-  const low = Math.max(Math.min(energy, reference ?? energy, ...potentials), energy - 3 * kinetic);
-  const high = energy + 3 * kinetic;
-  const margin = 0.05 * (high - low);
-  // Densities are drawn at the height of the variational energy and scaled to fill the space above it.
-  const peak = Math.max(...profile.samples.map((s) => s.trial), ...profile.grid.map((g) => g.density), Number.MIN_VALUE);
-  const lift = (0.6 * (high - energy)) / peak;
-  const q = profile.coordinate;
-  const marks: Plot.Markish[] = [
-    Plot.line(
-      profile.samples.filter((s) => s.potential !== null),
-      { x: 'x', y: 'potential', stroke: '#666', strokeWidth: 3, clip: true },
-    ),
-    Plot.ruleY([energy], { stroke: INK, strokeWidth: 0.8 }),
-    Plot.areaY(profile.samples, { x: 'x', y1: energy, y2: (s: DensityProfile['samples'][number]) => energy + lift * s.trial, fill: '#d9d9d9', clip: true }),
-    Plot.line(profile.samples, { x: 'x', y: (s: DensityProfile['samples'][number]) => energy + lift * s.trial, stroke: INK, strokeWidth: 1.4, clip: true }),
-    Plot.dot(profile.grid, { x: 'x', y: (g: DensityProfile['grid'][number]) => energy + lift * g.density, stroke: INK, fill: 'white', r: 2.5, symbol: 'circle', clip: true }),
-    Plot.text([energy], { y: (d: number) => d, frameAnchor: 'left', text: () => `E = ${formatNumber(energy, 8)}`, dy: 8, dx: 4, fill: INK, textAnchor: 'start' }),
-  ];
-  if (reference !== null) marks.push(Plot.ruleY([reference], { stroke: INK, strokeDasharray: '6,4' }));
-  return draw(
-    {
-      x: { label: `${q} (${units.length})` },
-      y: { label: `energy (${units.energy})`, domain: [low - margin, high + margin], grid: true },
-      marks,
-    },
-    `Thick grey: potential V(${q}). Shaded with line: trial density${q === 'r' ? ' r²|R|²' : ' |ψ|²'}; open circles: grid ground-state density at its nodes; both scaled and drawn from the level E. Dashed: reference ground energy.`,
-  );
-}
-
 /** The basis levels beside the grid levels of the same index: each basis level must sit on or above its partner. */
 function levelPlot(result: BlockResult, units: PlotUnits): string {
   const ticks = result.states.flatMap((state, k) => [
@@ -109,7 +70,3 @@ function levelPlot(result: BlockResult, units: PlotUnits): string {
   );
 }
 
-function draw(options: Plot.PlotOptions, caption: string): string {
-  const figure = Plot.plot({ document, width: WIDTH, height: HEIGHT, marginLeft: 58, marginRight: 16, style: STYLE, caption, ...options }) as unknown as { outerHTML: string };
-  return figure.outerHTML;
-}

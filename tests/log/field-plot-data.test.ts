@@ -1,0 +1,79 @@
+import { describe, expect, it } from 'vitest';
+import { evaluateBlock } from '../../src/log/evaluate-block.ts';
+import type { BlockResult } from '../../src/log/result-types.ts';
+import { renderPlots } from '../../src/render/plots.ts';
+import { parseRecord } from '../../src/spec/parse-record.ts';
+
+// The plot data of a trial on a product space: the density picture and the cuts through the potential's minimum.
+
+const FILE = 'content/records/field-plots.md';
+
+function run(block: string): BlockResult {
+  const text = ['---', 'title: Field plots', 'author: test', 'date: 2026-01-01', 'tags: []', '---', '', '```variational', block, '```', ''].join('\n');
+  return evaluateBlock(FILE, parseRecord(FILE, text).blocks[0]);
+}
+
+// Anisotropic oscillator V = x^2/2 + 2 y^2 (omega_x = 1, omega_y = 2, mass 1): the ground state is the product of 1-D
+// oscillator ground states, psi0 = (omega_x omega_y)^(1/4) pi^(-1/2) exp(-omega_x x^2/2 - omega_y y^2/2), so its density is
+// (sqrt 2 / pi) exp(-x^2 - 2 y^2) (textbook: separable oscillators, e.g. Griffiths §2.3 in each coordinate; from memory).
+const exact = (x: number, y: number) => (Math.SQRT2 / Math.PI) * Math.exp(-x * x - 2 * y * y);
+
+describe('plot data of a trial in two Cartesian coordinates', () => {
+  const result = run(`id: osc-xy
+space: { x: line, y: line }
+potential: x^2/2 + 2*y^2
+trial: exp(-a*x^2 - b*y^2)
+parameters:
+  a: { start: 0.3, min: 0.01, max: 5 }
+  b: { start: 0.6, min: 0.01, max: 5 }
+reference: { solve: false }
+report: { plots: [scan, density] }`);
+  const field = result.plots?.field;
+
+  it('samples the normalised density in the plane at the closed form', { timeout: 120_000 }, () => {
+    expect(result.status, result.message ?? '').toBe('confirmed');
+    expect(field).toBeTruthy();
+    const { x, y, density } = field!.picture;
+    expect(x.length * y.length).toBe(density.length);
+    let checked = 0;
+    for (let j = 0; j < y.length; j += 7) {
+      for (let i = 0; i < x.length; i += 7) {
+        expect(density[j * x.length + i]).toBeCloseTo(exact(x[i], y[j]), 6);
+        checked++;
+      }
+    }
+    expect(checked).toBeGreaterThan(50);
+    // The picture reaches well into the tails on both axes (at least to 10 % of the peak).
+    expect(exact(x[0], 0) / exact(0, 0)).toBeLessThan(0.1);
+    expect(exact(0, y[y.length - 1]) / exact(0, 0)).toBeLessThan(0.1);
+  });
+
+  it('cuts along each axis through the potential minimum at the origin, with V and the density there', () => {
+    expect(field!.throughKind).toBe('potential minimum');
+    expect(field!.through[0]).toBeCloseTo(0, 2);
+    expect(field!.through[1]).toBeCloseTo(0, 2);
+    expect(field!.cuts.map((c) => c.coordinate)).toEqual(['x', 'y']);
+    const [alongX, alongY] = field!.cuts;
+    for (const s of alongX.samples.filter((_, k) => k % 20 === 0)) {
+      const y0 = field!.through[1];
+      expect(s.trial).toBeCloseTo(exact(s.x, y0), 6);
+      expect(s.potential!).toBeCloseTo(s.x * s.x / 2 + 2 * y0 * y0, 10);
+    }
+    for (const s of alongY.samples.filter((_, k) => k % 20 === 0)) expect(s.trial).toBeCloseTo(exact(field!.through[0], s.x), 6);
+    expect(field!.dimension).toBe(2);
+    expect(result.plots!.scans.map((s) => s.parameter)).toEqual(['a', 'b']);
+  });
+
+  it('draws the picture with a grey legend, labelled contours and captions, and a cut per axis', () => {
+    const svgs = renderPlots(result, { energy: 'hartree', length: 'bohr', parameters: {} });
+    // Two scans, the picture, two cuts.
+    expect(svgs).toHaveLength(5);
+    const picture = svgs[2];
+    expect(picture).toMatch(/<figcaption>Trial density \|ψ\|²: grey bands between contour lines at 5, 20, 40, 60, 80 % of its peak/);
+    expect(picture).toContain('trial density |ψ|² (bohr⁻²)');
+    expect(picture).toMatch(/aria-label="contour"><path d="M/);
+    for (const label of ['20%', '60%', '80%']) expect(picture).toContain(`>${label}<`);
+    expect(svgs[3]).toContain('<figcaption>Cut along x through the potential minimum (y = ');
+    expect(svgs[4]).toContain('<figcaption>Cut along y through the potential minimum (x = ');
+  });
+});
