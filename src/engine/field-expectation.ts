@@ -24,6 +24,13 @@ export interface FieldExpectation {
 /** Tighter than the 1-D 1e-12 would cost a product run dearly; the energy still meets ENERGY_RELATIVE_ERROR_LIMIT by far. */
 export const FIELD_EXPECTATION_DEFAULTS = { relTol: 1e-11, maxIntervals: 2000 };
 
+/**
+ * The variance enters only the lower bounds and their slack, where a relative 1e-5 is far below what matters; a
+ * Coulomb cusp a trial does not match leaves |(H - E) psi|^2 ~ 1/r^2 at a nucleus, whose iterated integral needs many
+ * panels for every further digit.
+ */
+export const FIELD_VARIANCE_REL_TOL = 1e-5;
+
 /** Probes the trial at the parameters already set and places the cubature there. */
 export function placeField(problem: FieldProblem): FieldPlacement {
   return probeField(problem.trial.value, problem.potential, problem.space, [...problem.potentialSwitches, ...problem.trial.switches]);
@@ -72,7 +79,7 @@ export function searchFieldExpectation(problem: FieldProblem, atStart: FieldExpe
 export function fieldVariance(problem: FieldProblem, at: FieldExpectation): VarianceResult {
   const { space } = problem;
   const integrand = space.varianceIntegrand(problem.trial, problem.potential, at.energy);
-  const result = integrateProduct(integrand, 1, cubatureAxes(space, at.placement.axes), varianceOptions(at, { relTol: 1e-8, order: space.order }));
+  const result = integrateProduct(integrand, 1, cubatureAxes(space, at.placement.axes), varianceOptions(at, { relTol: FIELD_VARIANCE_REL_TOL, order: space.order }));
   if (!result.converged || !Number.isFinite(result.values[0])) {
     return {
       value: null,

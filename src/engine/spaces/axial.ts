@@ -1,6 +1,6 @@
 import { axialEnergyIntegrand, axialVarianceIntegrand } from '../cubature/energy-integrands.ts';
 import type { PointFunction } from '../problem.ts';
-import type { AxisPlacement, FieldSpace } from './field-space.ts';
+import { gridHint, type AxisPlacement, type FieldSpace } from './field-space.ts';
 import { lineSpace } from './line.ts';
 import { planeSpace } from './plane.ts';
 
@@ -32,6 +32,14 @@ export function axialSpace(m: number, mass: number): FieldSpace {
     varianceIntegrand: (trial, potential, energy) => axialVarianceIntegrand({ ...closures(trial, potential), laplacian: trial.laplacian }, energy),
     order: [Z, RHO],
     singularities: (potential, placements) => [{ axis: Z, points: nucleiOnAxis(potential, placements[Z]) }],
+    gridProblem: (potential, placements) => ({
+      axes: [
+        { name: 'rho', kind: 'rho', mass, breakpoints: placements[RHO].breakpoints, hint: gridHint(placements[RHO]) },
+        { name: 'z', kind: 'line', mass, breakpoints: placements[Z].breakpoints, hint: gridHint(placements[Z]) },
+      ],
+      potential,
+      angularMomentum: m,
+    }),
   };
 }
 

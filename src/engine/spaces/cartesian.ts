@@ -1,7 +1,7 @@
 import { cartesianEnergyIntegrand, cartesianVarianceIntegrand } from '../cubature/energy-integrands.ts';
 import type { PointFunction } from '../problem.ts';
 import { boxSpace } from './box.ts';
-import type { FieldSpace } from './field-space.ts';
+import { gridHint, type FieldSpace } from './field-space.ts';
 import { halfLineSpace } from './half-line.ts';
 import { lineSpace } from './line.ts';
 import type { CoordinateSpace } from './space.ts';
@@ -22,6 +22,16 @@ export function cartesianSpace(coordinates: Array<{ name: string; range: AxisRan
     varianceIntegrand: (trial, potential, energy) => cartesianVarianceIntegrand({ ...closures(trial, potential), laplacian: trial.laplacian }, energy),
     order: coordinates.map((_, k) => k),
     singularities: () => [],
+    gridProblem: (potential, placements) => ({
+      axes: coordinates.map((c, k) => ({
+        name: c.name,
+        ...(Array.isArray(c.range) ? { kind: 'interval' as const, lo: c.range[0], hi: c.range[1] } : { kind: c.range }),
+        mass: c.mass,
+        breakpoints: placements[k].breakpoints,
+        hint: gridHint(placements[k]),
+      })),
+      potential,
+    }),
   };
 }
 

@@ -1,4 +1,5 @@
 import type { CubatureAxis, ProductIntegrand } from '../cubature/integrate-product.ts';
+import type { ProductGridProblem } from '../grid-nd/product-grid-levels.ts';
 import type { FieldTrial, PointFunction } from '../problem.ts';
 import type { CoordinateSpace } from './space.ts';
 
@@ -26,6 +27,13 @@ export interface FieldSpace {
   order: number[];
   /** Points along the axis where the potential is singular although no switch function marks them (axial: nuclei on the axis). */
   singularities(potential: PointFunction, placements: AxisPlacement[]): Array<{ axis: number; points: number[] }>;
+  /** The product-grid problem of H on this space, its element edges at the split points and its scales from the placement. */
+  gridProblem(potential: PointFunction, placements: AxisPlacement[]): ProductGridProblem;
+}
+
+/** The grid hint of an axis from where the trial lives along it. */
+export function gridHint(placement: AxisPlacement): { center: number; width: number } {
+  return { center: placement.center, width: placement.scale };
 }
 
 /** The cubature axes of a space at a placement of the trial. */
