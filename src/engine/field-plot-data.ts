@@ -50,6 +50,10 @@ const REACH = 1.15;
 /** A potential minimum where the trial density is below this fraction of its peak says little about the state: cut through the peak instead. */
 const MINIMUM_DENSITY_FRACTION = 0.01;
 const SWEEPS = 2;
+const COARSE_SAMPLES = 41;
+/** The picture frames the samples above this fraction of the density's peak, with FRAME_MARGIN of that extent around them. */
+const FRAME_FRACTION = 0.01;
+const FRAME_MARGIN = 0.15;
 
 /** Samples the scans and the density picture and cuts of a trial on a space of two or three coordinates. */
 export function fieldPlotData(inputs: FieldPlotInputs, wanted: ReadonlyArray<'scan' | 'density'>): PlotData {
@@ -86,7 +90,8 @@ export function fieldDensity(inputs: Omit<FieldPlotInputs, keyof ScanInputs> & {
   const lowest = sweep(peak.point, cutPoints, (p) => potential(p), 'min');
   // Edges of the window are only a minimum of V where the space itself ends without a wall (rho = 0); elsewhere V keeps falling outward.
   const interior = lowest.index.every((i, k) => (i > 0 && i < CUT_SAMPLES - 1) || (i === 0 && windows[k].lo === space.axes[k].lo && !space.axes[k].walls.includes(space.axes[k].lo)));
-  const useMinimum = interior && Number.isFinite(lowest.value) && density(lowest.point) >= MINIMUM_DENSITY_FRACTION * peak.value;
+  // A potential that is not finite somewhere along the sweep is singular there (a nucleus): it has no minimum to cut through.
+  const useMinimum = interior && !lowest.sawNonFinite && Number.isFinite(lowest.value) && density(lowest.point) >= MINIMUM_DENSITY_FRACTION * peak.value;
   const through = Array.from(useMinimum ? lowest.point : peak.point);
   const snapped = inputs.grid ? through.map((x, k) => nearestNode(inputs.grid!.axes[k].nodes, x)) : null;
   if (snapped) snapped.forEach((i, k) => (through[k] = inputs.grid!.axes[k].nodes[i]));
@@ -102,17 +107,24 @@ export function fieldDensity(inputs: Omit<FieldPlotInputs, keyof ScanInputs> & {
   });
 
   const plane: [number, number] = [0, 1];
-  const x = along(plane[0], PICTURE_SAMPLES);
-  const y = along(plane[1], PICTURE_SAMPLES);
-  const point = Float64Array.from(through);
-  const values: number[] = [];
-  for (const yj of y) {
-    point[plane[1]] = yj;
-    for (const xi of x) {
-      point[plane[0]] = xi;
-      values.push(density(point));
+  const inPlane = (xs: number[], ys: number[]) => {
+    const point = Float64Array.from(through);
+    const values: number[] = [];
+    for (const yj of ys) {
+      point[plane[1]] = yj;
+      for (const xi of xs) {
+        point[plane[0]] = xi;
+        values.push(density(point));
+      }
     }
-  }
+    return values;
+  };
+  // A coarse look over the whole window first, so the picture frames where the density is rather than the far tails.
+  const coarse = { x: along(plane[0], COARSE_SAMPLES), y: along(plane[1], COARSE_SAMPLES) };
+  const frame = densityFrame(coarse.x, coarse.y, inPlane(coarse.x, coarse.y));
+  const x = spread(frame.x, PICTURE_SAMPLES);
+  const y = spread(frame.y, PICTURE_SAMPLES);
+  const values = inPlane(x, y);
   return {
     field: {
       coordinates: space.coordinates.slice(),
@@ -128,7 +140,8 @@ export function fieldDensity(inputs: Omit<FieldPlotInputs, keyof ScanInputs> & {
 }
 
 /** Coordinate sweeps over each axis's samples toward the extremum of f (non-finite values skipped): a point on the sample lattice and its indices. */
-function sweep(start: ArrayLike<number>, samples: number[][], f: PointFunction, kind: 'min' | 'max'): { point: Float64Array; index: number[]; value: number } {
+function sweep(start: ArrayLike<number>, samples: number[][], f: PointFunction, kind: 'min' | 'max'): { point: Float64Array; index: number[]; value: number; sawNonFinite: boolean } {
+  let sawNonFinite = false;
   const point = Float64Array.from(start);
   const index = Array.from(start, () => -1);
   const better = (a: number, b: number) => Number.isFinite(a) && (!Number.isFinite(b) || (kind === 'min' ? a < b : a > b));
@@ -140,6 +153,7 @@ function sweep(start: ArrayLike<number>, samples: number[][], f: PointFunction, 
       xs.forEach((x, i) => {
         point[k] = x;
         const v = f(point);
+        if (!Number.isFinite(v)) sawNonFinite = true;
         if (better(v, best.v)) best = { i, x, v };
       });
       point[k] = best.x;
@@ -147,7 +161,32 @@ function sweep(start: ArrayLike<number>, samples: number[][], f: PointFunction, 
       value = best.v;
     });
   }
-  return { point, index, value };
+  return { point, index, value, sawNonFinite };
+}
+
+/** The ranges in x and y holding every sample above FRAME_FRACTION of the peak, widened by FRAME_MARGIN and kept inside the window. */
+function densityFrame(x: number[], y: number[], values: number[]): { x: [number, number]; y: [number, number] } {
+  const peak = Math.max(...values);
+  let [i0, i1, j0, j1] = [x.length - 1, 0, y.length - 1, 0];
+  values.forEach((v, n) => {
+    if (!(v >= FRAME_FRACTION * peak)) return;
+    const i = n % x.length;
+    const j = Math.floor(n / x.length);
+    [i0, i1, j0, j1] = [Math.min(i0, i), Math.max(i1, i), Math.min(j0, j), Math.max(j1, j)];
+  });
+  // One sample step beyond the last sample above the fraction, where the density is known to be below it.
+  const range = (v: number[], a: number, b: number): [number, number] => {
+    if (a > b) return [v[0], v[v.length - 1]];
+    const lo = v[Math.max(0, a - 1)];
+    const hi = v[Math.min(v.length - 1, b + 1)];
+    const pad = FRAME_MARGIN * (hi - lo);
+    return [Math.max(v[0], lo - pad), Math.min(v[v.length - 1], hi + pad)];
+  };
+  return { x: range(x, i0, i1), y: range(y, j0, j1) };
+}
+
+function spread([lo, hi]: [number, number], count: number): number[] {
+  return Array.from({ length: count }, (_, i) => lo + ((hi - lo) * i) / (count - 1));
 }
 
 /** The grid ground state's density at the nodes of axis k inside its window, the other axes at the node indices `at`. */

@@ -37,56 +37,76 @@ function picture(field: FieldDensity, units: PlotUnits): string {
     ...levels.map((t, i) => Plot.contour(density, { ...grid, thresholds: [t], fill: GREYS[i + 1], stroke: INK, strokeWidth: 0.7 })),
     Plot.ruleX([through.h], { stroke: INK, strokeDasharray: '4,3', strokeWidth: 0.8 }),
     Plot.ruleY([through.v], { stroke: INK, strokeDasharray: '4,3', strokeWidth: 0.8 }),
-    // Alternate above and below the row so neighbouring labels do not overlap.
-    ...[-8, 9].map((dy, parity) =>
+    // Labels on the row sit centred on their contour; those up the column sit just right of it, clear of the dashed line.
+    ...(['row', 'column'] as const).map((line) =>
       Plot.text(
-        levelLabels(field, levels).filter((_, n) => n % 2 === parity),
-        { x: 'x', y: 'y', text: 'label', fill: INK, stroke: 'white', strokeWidth: 3, paintOrder: 'stroke', dy, fontSize: 10 },
+        levelLabels(field, levels).filter((l) => l.line === line),
+        { x: 'x', y: 'y', text: 'label', fill: INK, stroke: 'white', strokeWidth: 3, paintOrder: 'stroke', fontSize: 10, ...(line === 'column' ? { textAnchor: 'start', dx: 3 } : {}) },
       ),
     ),
   ];
-  const fixed = field.coordinates.length > 2 ? field.coordinates.flatMap((c, k) => (field.plane.includes(k) ? [] : [`${c} = ${formatNumber(field.through[k], 4)} ${units.length}`])) : [];
+  const at = coordinateFormat(field);
+  const fixed = field.coordinates.length > 2 ? field.coordinates.flatMap((c, k) => (field.plane.includes(k) ? [] : [`${c} = ${at(k)} ${units.length}`])) : [];
   const axial = field.coordinates[0] === 'rho' && field.dimension === 3 && field.coordinates.length === 2;
   const where = fixed.length > 0 ? ` in the plane ${fixed.join(', ')} (through the ${field.throughKind})` : axial ? ' in a half-plane through the z axis (the same at every angle about it)' : '';
-  const crossing = field.plane.map((k) => `${field.coordinates[k]} = ${formatNumber(field.through[k], 4)}`).join(', ');
+  const crossing = field.plane.map((k) => `${field.coordinates[k]} = ${at(k)}`).join(', ');
   return draw(
     {
       height,
       x: { label: `${h} (${units.length})`, domain: [bounds.x1, bounds.x2] },
       y: { label: `${v} (${units.length})`, domain: [bounds.y1, bounds.y2] },
-      color: { type: 'threshold', domain: levels, range: GREYS, legend: true, label: `trial density |ψ|² (${perUnit})`, tickFormat: (d: number) => formatNumber(d, 3) },
+      color: { type: 'threshold', domain: levels, range: GREYS, legend: true, label: `trial density |ψ|² (${perUnit})`, tickFormat: (d: number) => formatNumber(d, 2) },
       marks,
     },
     `Trial density |ψ|²${where}: grey bands between contour lines at ${LEVELS.map((f) => `${Math.round(100 * f)}`).join(', ')} % of its peak (labelled on the lines), darker is denser; the legend gives the levels in ${perUnit}. Dashed lines: the cuts that follow, crossing at the ${field.throughKind} (${crossing} ${units.length}).`,
   );
 }
 
-/** Where each level's contour crosses the row through the crossing point, walking outward from the row's densest sample. */
-function levelLabels(field: FieldDensity, levels: number[]): Array<{ x: number; y: number; label: string }> {
+/**
+ * Where each level's contour crosses the lines through the crossing point, walking outward from the line's densest
+ * sample: alternate levels along the row (to the right) and along the column (upward), so neighbouring labels stay apart.
+ */
+function levelLabels(field: FieldDensity, levels: number[]): Array<{ x: number; y: number; label: string; line: 'row' | 'column' }> {
   const { x, y, density } = field.picture;
-  const yv = field.through[field.plane[1]];
-  let j = 0;
-  for (let k = 1; k < y.length; k++) if (Math.abs(y[k] - yv) < Math.abs(y[j] - yv)) j = k;
-  const row = density.slice(j * x.length, (j + 1) * x.length);
-  const top = row.indexOf(Math.max(...row));
-  return levels.flatMap((t, n) => {
-    for (let i = top + 1; i < row.length; i++) {
-      if (row[i] < t && row[i - 1] >= t) {
-        const at = x[i - 1] + ((x[i] - x[i - 1]) * (row[i - 1] - t)) / (row[i - 1] - row[i]);
-        return [{ x: at, y: y[j], label: `${Math.round(100 * LEVELS[n])}%` }];
-      }
+  const nearest = (v: number[], at: number) => v.reduce((best, w, k) => (Math.abs(w - at) < Math.abs(v[best] - at) ? k : best), 0);
+  const i0 = nearest(x, field.through[field.plane[0]]);
+  const j0 = nearest(y, field.through[field.plane[1]]);
+  const row = x.map((_, i) => density[j0 * x.length + i]);
+  const column = y.map((_, j) => density[j * x.length + i0]);
+  const crossing = (line: number[], at: number[], t: number): number | null => {
+    const top = line.indexOf(Math.max(...line));
+    for (let i = top + 1; i < line.length; i++) {
+      if (line[i] < t && line[i - 1] >= t) return at[i - 1] + ((at[i] - at[i - 1]) * (line[i - 1] - t)) / (line[i - 1] - line[i]);
     }
-    return [];
+    return null;
+  };
+  return levels.flatMap((t, n): Array<{ x: number; y: number; label: string; line: 'row' | 'column' }> => {
+    const label = `${Math.round(100 * LEVELS[n])}%`;
+    const up = n % 2 === 1 ? crossing(column, y, t) : null;
+    if (up !== null) return [{ x: x[i0], y: up, label, line: 'column' }];
+    const right = crossing(row, x, t);
+    return right === null ? [] : [{ x: right, y: y[j0], label, line: 'row' }];
   });
 }
 
 function cuts(field: FieldDensity, result: BlockResult, units: PlotUnits): string[] {
+  const at = coordinateFormat(field);
   const perUnit = `${units.length}⁻${superscript(field.dimension)}`;
   return field.cuts.map((cut, k) => {
-    const others = field.coordinates.flatMap((c, j) => (j === k ? [] : [`${c} = ${formatNumber(field.through[j], 4)} ${units.length}`])).join(', ');
+    const others = field.coordinates.flatMap((c, j) => (j === k ? [] : [`${c} = ${at(j)} ${units.length}`])).join(', ');
     const caption = `Cut along ${cut.coordinate} through the ${field.throughKind} (${others}). Thick grey: potential V. Shaded with line: trial density |ψ|² (per ${perUnit}); open circles: grid ground-state density at its nodes on this line; both scaled and drawn from the level E. Dashed: reference ground energy.`;
     return densityPlot(cut, cut.coordinate, caption, result, units);
   });
+}
+
+/** A coordinate of the crossing point to 4 digits; a grid node a rounding error from 0 (or beside rho = 0) reads 0. */
+function coordinateFormat(field: FieldDensity): (k: number) => string {
+  return (k) => {
+    const samples = field.cuts[k].samples;
+    const span = Math.abs(samples[samples.length - 1].x - samples[0].x);
+    const v = field.through[k];
+    return formatNumber(Math.abs(v) < 1e-5 * span ? 0 : v, 4);
+  };
 }
 
 function superscript(n: number): string {

@@ -77,3 +77,39 @@ report: { plots: [scan, density] }`);
     expect(svgs[4]).toContain('<figcaption>Cut along y through the potential minimum (x = ');
   });
 });
+
+// An elliptic dot in meV and nm: m* = 0.067 m_e, omega_x = 3.0385e12 /s, omega_y = 7.5963e12 /s. The ground state is
+// the product of oscillator ground states with lengths l_k = sqrt(hbar / (m omega_k)), density
+// exp(-x^2/l_x^2 - y^2/l_y^2) / (pi l_x l_y) (textbook oscillator, as above). hbar and m_e: CODATA 2018 (NIST).
+describe('plot data of a quantity-mode block in its own units', () => {
+  const hbar = 1.054571817e-34;
+  const m = 0.067 * 9.1093837015e-31;
+  const [lx, ly] = [3.0385e12, 7.5963e12].map((w) => Math.sqrt(hbar / (m * w)) * 1e9);
+  const exactNm = (x: number, y: number) => Math.exp(-(x * x) / (lx * lx) - (y * y) / (ly * ly)) / (Math.PI * lx * ly);
+
+  it('states lengths in nm and the density in nm^-2', { timeout: 120_000 }, () => {
+    const result = run(`id: q3
+units: { length: nm, energy: meV }
+space: { x: line, y: line }
+mass: 0.067 electronMass
+constants:
+  wx: 3.0385 THz
+  wy: 7.5963 THz
+potential: mass * (wx^2 x^2 + wy^2 y^2) / 2
+trial: exp(-x^2 / bx^2 - y^2 / by^2)
+parameters:
+  bx: { start: 30 nm, min: 3 nm, max: 300 nm }
+  by: { start: 30 nm, min: 3 nm, max: 300 nm }
+reference: { solve: false }
+report: { plots: [density] }`);
+    expect(result.status, result.message ?? '').toBe('confirmed');
+    const field = result.plots!.field!;
+    const [alongX, alongY] = field.cuts;
+    for (const s of alongX.samples.filter((_, k) => k % 16 === 0)) expect(s.trial / exactNm(s.x, field.through[1])).toBeCloseTo(1, 4);
+    for (const s of alongY.samples.filter((_, k) => k % 16 === 0)) expect(s.trial / exactNm(field.through[0], s.x)).toBeCloseTo(1, 4);
+    // The cut reaches about the dot's size in nm, not in bohr (l_x is about 23 nm).
+    expect(alongX.samples[alongX.samples.length - 1].x).toBeGreaterThan(lx);
+    const svgs = renderPlots(result, { energy: 'meV', length: 'nm', parameters: {} });
+    expect(svgs[0]).toContain('trial density |ψ|² (nm⁻²)');
+  });
+});
