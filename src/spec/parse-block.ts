@@ -241,7 +241,9 @@ function spaceProblems(raw: RawBlock, quantityMode: boolean): Array<[Path, strin
       if (coordinates.includes(name) && !(RESERVED_NAMES as readonly string[]).includes(name)) found.push([[group, name], `${name} is a coordinate of this space; choose another name`]);
     }
   }
-  if (typeof raw.mass === 'string' && (typeof space === 'object' || space === 'axial')) {
+  // In quantity mode text is a mass with its unit; it depends on the coordinates only where it names one.
+  const massNamesCoordinate = typeof raw.mass === 'string' && (!quantityMode || coordinatesOf(space).some((c) => namesCoordinate(raw.mass as string, c)));
+  if (massNamesCoordinate && (typeof space === 'object' || space === 'axial')) {
     found.push([['mass'], 'a mass that depends on the coordinates is available on spaces of one coordinate only; give a number (or a map of numbers per coordinate on a product space)']);
   }
   if (typeof raw.mass === 'object') {
