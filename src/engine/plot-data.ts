@@ -13,6 +13,8 @@ export interface EnergyScan {
 /** Trial and grid densities (weight |psi|^2, the density in the coordinate: radial r^2 |R|^2) and the potential on a common window. */
 export interface DensityProfile {
   coordinate: 'x' | 'r';
+  /** On `plane` the density in r is r |R|^2 (volume element r dr), not the radial r^2 |R|^2. */
+  plane?: boolean;
   samples: Array<{ x: number; trial: number; potential: number | null }>;
   /** The grid ground state at its own nodes inside the window (no interpolation). */
   grid: Array<{ x: number; density: number }>;
@@ -110,5 +112,5 @@ function densityProfile(inputs: PlotInputs): DensityProfile {
     // Grid vectors are normalised with the lumped weights, so ground[i]^2 is the density at node i (radial: of chi = r R).
     for (let i = 0; i < nodes.length; i++) if (nodes[i] >= lo && nodes[i] <= hi) grid.push({ x: nodes[i], density: ground[i] * ground[i] });
   }
-  return { coordinate: domain.coordinate, samples, grid };
+  return { coordinate: domain.coordinate, ...(domain.name === 'plane' ? { plane: true } : {}), samples, grid };
 }

@@ -58,6 +58,7 @@ export function inBlockUnits(result: BlockResult, units: QuantityMode): BlockRes
       // Densities are per unit length, so they scale inversely with it.
       density: plots.density && {
         coordinate: plots.density.coordinate,
+        ...(plots.density.plane ? { plane: true } : {}),
         samples: plots.density.samples.map((s) => ({ x: s.x * L, trial: s.trial / L, potential: maybe(s.potential) })),
         grid: plots.density.grid.map((g) => ({ x: g.x * L, density: g.density / L })),
       },

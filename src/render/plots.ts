@@ -15,7 +15,7 @@ export function renderPlots(result: BlockResult, units: PlotUnits): string[] {
   const { density, field } = result.plots;
   if (density) {
     const q = density.coordinate;
-    const caption = `Thick grey: potential V(${q}). Shaded with line: trial density${q === 'r' ? ' r²|R|²' : ' |ψ|²'}; open circles: grid ground-state density at its nodes; both scaled and drawn from the level E. Dashed: reference ground energy.`;
+    const caption = `Thick grey: potential V(${q}). Shaded with line: trial density${q === 'r' ? (density.plane ? ' r|R|²' : ' r²|R|²') : ' |ψ|²'}; open circles: grid ground-state density at its nodes; both scaled and drawn from the level E. Dashed: reference ground energy.`;
     svgs.push(densityPlot(density, q, caption, result, units));
   }
   if (field) svgs.push(...fieldPlots(field, result, units));

@@ -113,3 +113,24 @@ report: { plots: [density] }`);
     expect(svgs[0]).toContain('trial density |ψ|² (nm⁻²)');
   });
 });
+
+// Plane, m = 1, V = r^2/2: R = r exp(-r^2/2) is exact (E = (2 n_r + |m| + 1) omega = 2), and the density in r,
+// r |R|^2 normalised over dr, is 2 r^3 exp(-r^2) since the integral of r^3 exp(-r^2) over r > 0 is 1/2 (elementary).
+describe('the density plot on the plane', () => {
+  it('draws r|R|² normalised in r and says so', { timeout: 60_000 }, () => {
+    const result = run(`id: plane-m1
+space: plane
+angular-momentum: 1
+potential: r^2/2
+trial: r*exp(-a*r^2)
+parameters:
+  a: { start: 0.3, min: 0.05, max: 3 }
+reference: { solve: false }
+report: { plots: [density] }`);
+    expect(result.status, result.message ?? '').toBe('confirmed');
+    const density = result.plots!.density!;
+    for (const s of density.samples.filter((_, k) => k % 20 === 10)) expect(s.trial).toBeCloseTo(2 * s.x ** 3 * Math.exp(-s.x * s.x), 5);
+    const [svg] = renderPlots(result, { energy: 'hartree', length: 'bohr', parameters: {} });
+    expect(svg).toContain('trial density r|R|²');
+  });
+});
