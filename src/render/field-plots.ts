@@ -94,7 +94,9 @@ function cuts(field: FieldDensity, result: BlockResult, units: PlotUnits): strin
   const perUnit = `${units.length}⁻${superscript(field.dimension)}`;
   return field.cuts.map((cut, k) => {
     const others = field.coordinates.flatMap((c, j) => (j === k ? [] : [`${c} = ${at(j)} ${units.length}`])).join(', ');
-    const caption = `Cut along ${cut.coordinate} through the ${field.throughKind} (${others}). Thick grey: potential V. Shaded with line: trial density |ψ|² (per ${perUnit}); open circles: grid ground-state density at its nodes on this line; both scaled and drawn from the level E. Dashed: reference ground energy.`;
+    const grid = cut.grid.length > 0 ? '; open circles: grid ground-state density at its nodes on this line; both' : ',';
+    const reference = result.reference?.energy != null ? ' Dashed: reference ground energy.' : '';
+    const caption = `Cut along ${cut.coordinate} through the ${field.throughKind} (${others}). Thick grey: potential V. Shaded with line: trial density |ψ|² (per ${perUnit})${grid} scaled and drawn from the level E.${reference}`;
     return densityPlot(cut, cut.coordinate, caption, result, units);
   });
 }

@@ -75,6 +75,8 @@ report: { plots: [scan, density] }`);
     for (const label of ['20%', '60%', '80%']) expect(picture).toContain(`>${label}<`);
     expect(svgs[3]).toContain('<figcaption>Cut along x through the potential minimum (y = ');
     expect(svgs[4]).toContain('<figcaption>Cut along y through the potential minimum (x = ');
+    // No grid was asked for: the caption does not promise its circles or a reference line.
+    expect(svgs[3]).toContain('trial density |ψ|² (per bohr⁻²), scaled and drawn from the level E.</figcaption>');
   });
 });
 
@@ -132,5 +134,27 @@ report: { plots: [density] }`);
     for (const s of density.samples.filter((_, k) => k % 20 === 10)) expect(s.trial).toBeCloseTo(2 * s.x ** 3 * Math.exp(-s.x * s.x), 5);
     const [svg] = renderPlots(result, { energy: 'hartree', length: 'bohr', parameters: {} });
     expect(svg).toContain('trial density r|R|²');
+  });
+});
+
+describe('grid densities on the cuts', () => {
+  // The same anisotropic oscillator with the product-grid reference: the grid ground state at its nodes on each cut
+  // must be the closed-form density (sqrt 2 / pi) exp(-x^2 - 2 y^2) there, which also checks which nodes the cut reads.
+  it('reads the grid ground state at the nodes on each cut, matching the closed form', { timeout: 300_000 }, () => {
+    const result = run(`id: osc-xy-grid
+space: { x: line, y: line }
+potential: x^2/2 + 2*y^2
+trial: exp(-a*x^2 - b*y^2)
+parameters:
+  a: { start: 0.3, min: 0.01, max: 5 }
+  b: { start: 0.6, min: 0.01, max: 5 }
+report: { plots: [density] }`);
+    expect(result.status, result.message ?? '').toBe('confirmed');
+    const field = result.plots!.field!;
+    const [alongX, alongY] = field.cuts;
+    expect(alongX.grid.length).toBeGreaterThan(10);
+    expect(alongY.grid.length).toBeGreaterThan(10);
+    for (const g of alongX.grid) expect(g.density).toBeCloseTo(exact(g.x, field.through[1]), 5);
+    for (const g of alongY.grid) expect(g.density).toBeCloseTo(exact(field.through[0], g.x), 5);
   });
 });
