@@ -2,11 +2,9 @@ import { eckartOverlapFloor } from './bounds.ts';
 import { ATOMIC_DISPLAY, g, type ValueDisplay } from './format.ts';
 import type { GridLevels } from './grid-levels.ts';
 import type { MinimizeResult } from './minimize.ts';
+import { describeLevel, GROUND_LEVEL, type TargetLevel } from './parity.ts';
 import type { ProblemBase } from './problem.ts';
 import { gradedCheck, type GradedCheck } from './status.ts';
-
-/** What the checks read of a grid solution, one coordinate or several. */
-export type ReferenceGrid = Pick<GridLevels, 'levels' | 'converged' | 'size' | 'refinements' | 'errorEstimate' | 'message'>;
 
 /** What the checks shared by the trial and the basis evaluations read from a problem. */
 export type CheckedProblem = Pick<ProblemBase, 'parameters' | 'reference' | 'claim' | 'display'>;
@@ -36,8 +34,16 @@ export function optimiserChecks(problem: CheckedProblem, optimiser: MinimizeResu
   ];
 }
 
-/** The variational energy against the grid's ground level and the published value; the grid against the published value. */
-export function referenceChecks(problem: CheckedProblem, energy: number, tolerance: number, grid: ReferenceGrid | null, gridError: string | null): GradedCheck[] {
+/** How check details name the grid level compared with: E0(grid) for the ground level. */
+export function gridLevelName(target: TargetLevel): string {
+  return target.symmetry === null && target.index === 0 ? 'E0(grid)' : `E(grid, ${describeLevel(target)})`;
+}
+
+/**
+ * The variational energy against the grid level the block targets (the ground level by default) and the published
+ * value; the grid against the published value.
+ */
+export function referenceChecks(problem: CheckedProblem, energy: number, tolerance: number, grid: GridLevels | null, gridError: string | null, target: TargetLevel = GROUND_LEVEL): GradedCheck[] {
   const show = problem.display ?? ATOMIC_DISPLAY;
   const checks: GradedCheck[] = [];
   const published = problem.reference.published;
@@ -55,14 +61,20 @@ export function referenceChecks(problem: CheckedProblem, energy: number, toleran
         'unsettled',
       ),
     );
-    if (grid && grid.levels.length > 0) {
-      const e0 = grid.levels[0];
-      const slack = tolerance + 10 * (grid.errorEstimate[0] ?? 0);
+    const name = gridLevelName(target);
+    if (grid && grid.levels.length > 0 && grid.levels.length <= target.gridIndex) {
+      checks.push(
+        gradedCheck('grid-level-bound', false, `the grid finds no bound ${describeLevel(target)}: ${grid.levels.length} bound level${grid.levels.length === 1 ? '' : 's'} below the continuum threshold ${show.energy(grid.threshold)}`, 'unsettled'),
+      );
+    }
+    if (grid && grid.levels.length > target.gridIndex) {
+      const e0 = grid.levels[target.gridIndex];
+      const slack = tolerance + 10 * (grid.errorEstimate[target.gridIndex] ?? 0);
       checks.push(
         gradedCheck(
           'above-grid-reference',
           energy >= e0 - slack,
-          `E - E0(grid) = ${show.energy(energy - e0, 4)} (must be >= -${show.energy(slack, 2)})`,
+          `E - ${name} = ${show.energy(energy - e0, 4)} (must be >= -${show.energy(slack, 2)})`,
           'below-reference',
         ),
       );
@@ -73,7 +85,7 @@ export function referenceChecks(problem: CheckedProblem, energy: number, toleran
           gradedCheck(
             'grid-matches-published',
             gap <= allowed,
-            `|E0(grid) - published| = ${show.energy(gap, 3)} (allowed ${show.energy(allowed, 3)}: the published value's precision plus the grid's)`,
+            `|${name} - published| = ${show.energy(gap, 3)} (allowed ${show.energy(allowed, 3)}: the published value's precision plus the grid's)`,
             'unsettled',
           ),
         );
@@ -126,27 +138,31 @@ export function claimChecks(problem: CheckedProblem, energy: number, best: numbe
   return checks;
 }
 
-/** Temple's lower bound against the grid's ground level, and the overlap with the grid state against Eckart's floor. */
-export function boundChecks(energy: number, lower: number | null, overlap: number | null, grid: ReferenceGrid, nextLevel: number | null, tolerance: number, show: ValueDisplay): GradedCheck[] {
+/**
+ * Temple's bound against the targeted grid level e0, and Eckart's overlap floor. Restricted to the states of one parity,
+ * Temple's bound holds for the level below the next one of that parity, and Eckart's for the lowest level of that parity
+ * with E1 the next; above the lowest level Eckart's criterion says nothing, so it is left out.
+ */
+export function boundChecks(energy: number, lower: number | null, overlap: number | null, e0: number, target: TargetLevel, nextLevel: number | null, tolerance: number, show: ValueDisplay): GradedCheck[] {
   const checks: GradedCheck[] = [];
-  const e0 = grid.levels[0];
   if (lower !== null) {
     checks.push(
       gradedCheck(
         'temple-below-grid',
         lower <= e0 + tolerance,
-        `Temple's lower bound ${show.energy(lower)} against E0(grid) ${show.energy(e0)} (with E1 = ${show.energy(nextLevel ?? NaN)})`,
+        `Temple's lower bound ${show.energy(lower)} against ${gridLevelName(target)} ${show.energy(e0)} (with E1 = ${show.energy(nextLevel ?? NaN)})`,
         'unsettled',
       ),
     );
   }
-  const floor = eckartOverlapFloor(energy, e0, nextLevel);
+  const floor = target.index === 0 ? eckartOverlapFloor(energy, e0, nextLevel) : null;
   if (overlap !== null && floor !== null) {
+    const state = target.symmetry === null ? 'ground state' : `state of the ${describeLevel(target)}`;
     checks.push(
       gradedCheck(
         'eckart-overlap',
         overlap >= floor - 1e-6,
-        `overlap with the grid ground state ${g(overlap, 8)} (Eckart's floor ${g(floor, 8)})`,
+        `overlap with the grid ${state} ${g(overlap, 8)} (Eckart's floor ${g(floor, 8)})`,
         'unsettled',
       ),
     );

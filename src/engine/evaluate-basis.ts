@@ -12,7 +12,8 @@ import { spaceOf } from './spaces/space-of.ts';
 import { gradedCheck, statusOf, type GradedCheck } from './status.ts';
 import { COMPARISON_FLOOR, ENERGY_RELATIVE_ERROR_LIMIT } from './tolerances.ts';
 import { probeTrial } from './trial-probe.ts';
-import { virialRatio } from './virial.ts';
+import { GROUND_LEVEL } from './parity.ts';
+import { virialReport } from './virial.ts';
 
 /**
  * Evaluates a block on the linear variational method: the lowest levels of H in the span of the basis (optimising
@@ -142,13 +143,14 @@ export function evaluateBasisProblem(problem: BasisProblem): EngineResult {
     gridError,
     bounds: { upper: energy, lower: null, weinstein: null, nextLevel: levels[1]?.energy ?? null },
     overlap,
-    virial: problem.massProfile ? null : virialRatio(problem.potential, domain.lo === -Infinity, ground.kinetic, ground.potential),
+    ...virialReport(problem.potential, domain.walls, domain.lo === -Infinity, ground.kinetic, ground.potential, Boolean(problem.massProfile)),
     optimiser,
     checks,
     counts,
     timings,
     plots,
     states: levels.map((level, k) => ({ energy: level.energy, errorEstimate: level.errorEstimate, reference: grid?.levels[k] ?? null })),
+    level: GROUND_LEVEL,
     basis: {
       functions: functions.length,
       kept: overlapInfo.kept,

@@ -6,6 +6,7 @@ import { fieldGridReference, productOverlap } from './field-grid-reference.ts';
 import { fieldPlotData } from './field-plot-data.ts';
 import { ATOMIC_DISPLAY, g } from './format.ts';
 import { minimizeBounded, type MinimizeResult } from './minimize.ts';
+import { GROUND_LEVEL } from './parity.ts';
 import type { FieldProblem } from './problem.ts';
 import { gradedCheck, statusOf, type GradedCheck } from './status.ts';
 import { COMPARISON_FLOOR, ENERGY_RELATIVE_ERROR_LIMIT, WALL_TOLERANCE } from './tolerances.ts';
@@ -71,7 +72,7 @@ export function evaluateFieldProblem(problem: FieldProblem): EngineResult {
   const nextLevel = grid ? (grid.levels.length > 1 ? grid.levels[1] : grid.threshold) : null;
   const lower = templeBound(energy, variance.value, nextLevel);
   const overlap = product ? productOverlap(problem.trial.value, product, optimum.norm) : null;
-  if (grid && grid.converged) checks.push(...boundChecks(energy, lower, overlap, grid, nextLevel, tolerance + 10 * (grid.errorEstimate[0] ?? 0), show));
+  if (grid && grid.converged) checks.push(...boundChecks(energy, lower, overlap, grid.levels[0], GROUND_LEVEL, nextLevel, tolerance + 10 * (grid.errorEstimate[0] ?? 0), show));
   if (problem.claim) checks.push(...claimChecks(problem, energy, best));
 
   const { status, message } = statusOf(checks);
@@ -94,6 +95,7 @@ export function evaluateFieldProblem(problem: FieldProblem): EngineResult {
     bounds: { upper: energy, lower, weinstein: weinsteinInterval(energy, variance.value), nextLevel },
     overlap,
     virial: null,
+    virialNote: null,
     optimiser,
     checks,
     counts: { ...counts, trialEvaluations: counts.trialEvaluations + variance.evaluations },
@@ -101,6 +103,7 @@ export function evaluateFieldProblem(problem: FieldProblem): EngineResult {
     plots,
     states: [{ energy, errorEstimate: optimum.errorEstimate, reference: grid?.levels[0] ?? null }],
     basis: null,
+    level: GROUND_LEVEL,
   };
 }
 

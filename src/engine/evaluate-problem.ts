@@ -3,8 +3,9 @@ import { findBreakpoints } from './breakpoints.ts';
 import { boundChecks, claimChecks, optimiserChecks, referenceChecks } from './checks.ts';
 import { COMPARISON_FLOOR, ENERGY_RELATIVE_ERROR_LIMIT, WALL_TOLERANCE } from './tolerances.ts';
 import { expectation, placedExpectation, searchExpectation, type Expectation } from './expectation.ts';
-import { ATOMIC_DISPLAY, g } from './format.ts';
+import { ATOMIC_DISPLAY, g, type ValueDisplay } from './format.ts';
 import type { GridLevels } from './grid-levels.ts';
+import { GROUND_LEVEL, resolveTarget, type TargetLevel } from './parity.ts';
 import { gridReference } from './grid-reference.ts';
 import { hamiltonianSwitches, massPositiveCheck } from './mass-profile.ts';
 import { minimizeBounded, type MinimizeResult } from './minimize.ts';
@@ -15,7 +16,7 @@ import type { CoordinateSpace } from './spaces/space.ts';
 import { findNonFiniteFactor, probeTrial } from './trial-probe.ts';
 import { gradedCheck, statusOf, type GradedCheck, type Status } from './status.ts';
 import { energyVariance, type VarianceResult } from './variance.ts';
-import { virialRatio, type Virial } from './virial.ts';
+import { virialReport, type Virial } from './virial.ts';
 
 export interface EngineResult {
   status: Status;
@@ -30,6 +31,8 @@ export interface EngineResult {
   bounds: { upper: number | null; lower: number | null; weinstein: [number, number] | null; nextLevel: number | null };
   overlap: number | null;
   virial: Virial | null;
+  /** Why no virial ratio is given for a power-law potential (hard walls away from the origin, a mass m(x)); else null. */
+  virialNote: string | null;
   optimiser: MinimizeResult | null;
   checks: GradedCheck[];
   counts: { energyEvaluations: number; trialEvaluations: number };
@@ -41,6 +44,8 @@ export interface EngineResult {
   states: Array<{ energy: number; errorEstimate: number; reference: number | null }>;
   /** The linear method's overlap diagnostics; null for a single trial. */
   basis: BasisDiagnostics | null;
+  /** The grid level the energy is compared with (declared by the block, read off an odd trial, or the ground level). */
+  level: TargetLevel;
 }
 
 export interface BasisDiagnostics {
@@ -77,7 +82,7 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
   // A step of the mass is a split point and a grid element edge, as a kink of the potential is.
   const potentialBreaks = findBreakpoints(hamiltonianSwitches(problem), domain.lo, domain.hi, startProbe.center, startProbe.scale).points;
   const atStart = counted(placedExpectation(problem, domain, potentialBreaks, startProbe), counts);
-  const startChecks = trialChecks(problem, domain, atStart, 'the start values');
+  const startChecks = [...trialChecks(problem, domain, atStart, 'the start values', show), ...targetOf(problem, domain, atStart, 'the start values').checks];
   if (startChecks.some((c) => !c.pass)) return invalidResult(startChecks, counts, started);
 
   let optimiser: MinimizeResult | null = null;
@@ -88,7 +93,8 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
     best = Array.from(optimiser.x);
   }
   const optimum = evaluate(problem, domain, potentialBreaks, best, counts);
-  const optimumChecks = trialChecks(problem, domain, optimum, 'the optimum');
+  const { target, checks: targetChecks } = targetOf(problem, domain, optimum, 'the optimum');
+  const optimumChecks = [...trialChecks(problem, domain, optimum, 'the optimum', show), ...targetChecks];
   if (optimumChecks.some((c) => !c.pass)) return invalidResult(optimumChecks, counts, started);
 
   const checks: GradedCheck[] = [...optimumChecks];
@@ -107,14 +113,20 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
   problem.trial.setParameters(best);
   const variance = energyVariance(problem, domain, optimum);
 
-  const { grid, gridError, referenceMs } = gridReference(problem, domain, potentialBreaks, { center: optimum.probe.center, width: optimum.probe.scale });
+  // A level above the ground level needs the grid to settle every level up to the next one of its parity.
+  const levels = target.nextGridIndex > 1 ? target.nextGridIndex + 1 : undefined;
+  const { grid, gridError, referenceMs } = gridReference(problem, domain, potentialBreaks, { center: optimum.probe.center, width: optimum.probe.scale }, levels);
   const tolerance = 10 * optimum.errorEstimate + COMPARISON_FLOOR * Math.max(1, Math.abs(energy));
-  checks.push(...referenceChecks(problem, energy, tolerance, grid, gridError));
+  checks.push(...referenceChecks(problem, energy, tolerance, grid, gridError, target));
 
-  const nextLevel = grid ? (grid.levels.length > 1 ? grid.levels[1] : grid.threshold) : null;
+  const reference = grid?.levels[target.gridIndex] ?? null;
+  const nextLevel = grid ? (grid.levels[target.nextGridIndex] ?? grid.threshold) : null;
   const lower = templeBound(energy, variance.value, nextLevel);
-  const overlap = grid ? groundOverlap(problem.trial.value, domain, grid, optimum.norm) : null;
-  if (grid && grid.converged) checks.push(...boundChecks(energy, lower, overlap, grid, nextLevel, tolerance + 10 * (grid.errorEstimate[0] ?? 0), show));
+  const state = grid?.states[target.gridIndex];
+  const overlap = grid && state ? groundOverlap(problem.trial.value, domain, grid, optimum.norm, state) : null;
+  if (grid && grid.converged && reference !== null) {
+    checks.push(...boundChecks(energy, lower, overlap, reference, target, nextLevel, tolerance + 10 * (grid.errorEstimate[target.gridIndex] ?? 0), show));
+  }
   if (problem.claim) checks.push(...claimChecks(problem, energy, best));
 
   const { status, message } = statusOf(checks);
@@ -132,6 +144,7 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
       center: optimum.probe.center,
       scale: optimum.probe.scale,
       grid,
+      gridLevel: target.gridIndex,
     },
     problem.plots,
   );
@@ -147,16 +160,21 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
     gridError,
     bounds: { upper: energy, lower, weinstein: weinsteinInterval(energy, variance.value), nextLevel },
     overlap,
-    // The virial theorem's 2<T> = k<V> rests on a constant mass.
-    virial: problem.massProfile ? null : virialRatio(problem.potential, domain.lo === -Infinity, optimum.kinetic, optimum.potential),
+    ...virialReport(problem.potential, domain.walls, domain.lo === -Infinity, optimum.kinetic, optimum.potential, Boolean(problem.massProfile)),
     optimiser,
     checks,
     counts: { ...counts, trialEvaluations: counts.trialEvaluations + variance.evaluations },
     timings,
     plots,
-    states: [{ energy, errorEstimate: optimum.errorEstimate, reference: grid?.levels[0] ?? null }],
+    states: [{ energy, errorEstimate: optimum.errorEstimate, reference }],
     basis: null,
+    level: target,
   };
+}
+
+/** The level the trial at `at` is compared with, and the checks of a declared symmetry. */
+function targetOf(problem: VariationalProblem, domain: CoordinateSpace, at: Expectation, where: string): ReturnType<typeof resolveTarget> {
+  return resolveTarget(problem.level, problem.potential, problem.trial.value, domain, at.probe.peakAmplitude, where);
 }
 
 function evaluate(problem: VariationalProblem, domain: CoordinateSpace, potentialBreaks: number[], p: ArrayLike<number>, counts: EngineResult['counts']): Expectation {
@@ -170,16 +188,16 @@ function counted<T extends { evaluations: number }>(result: T, counts: EngineRes
 }
 
 /** Square-integrable, finite energy integrals, and zero at every hard wall. */
-function trialChecks(problem: VariationalProblem, domain: CoordinateSpace, at: Expectation, where: string): GradedCheck[] {
+function trialChecks(problem: VariationalProblem, domain: CoordinateSpace, at: Expectation, where: string, show: ValueDisplay): GradedCheck[] {
   // A NaN or an overflow met by the quadrature is traced to the input that produced it.
-  const nonFinite = at.failure === 'non-finite' ? findNonFiniteFactor(problem.potential, problem.trial, domain) : null;
+  const nonFinite = at.failure === 'non-finite' ? findNonFiniteFactor(problem.potential, problem.trial, domain, at.probe, show) : null;
   const checks = [
     nonFinite
       ? gradedCheck('finite-integrands', false, `at ${where}: ${nonFinite.detail}`, 'invalid', nonFinite.culprit === 'potential' ? 'potential' : undefined)
       : gradedCheck(
           'normalisable',
           at.failure === null,
-          at.failure === null ? `norm integral ${g(at.norm)} at ${where}` : `at ${where}: ${at.failureDetail}`,
+          at.failure === null ? `norm integral ${show.norm(at.norm)} at ${where}` : `at ${where}: ${at.failureDetail}`,
           'invalid',
         ),
   ];
@@ -191,7 +209,7 @@ function trialChecks(problem: VariationalProblem, domain: CoordinateSpace, at: E
       gradedCheck(
         'hard-wall',
         Number.isFinite(psi) && ratio <= WALL_TOLERANCE,
-        `trial at the wall ${g(wall)} is ${g(psi, 4)} (${g(ratio, 3)} of its peak; must vanish) at ${where}`,
+        `trial at the wall ${show.length(wall)} is ${g(psi, 4)} (${g(ratio, 3)} of its peak; must vanish) at ${where}`,
         'invalid',
       ),
     );
@@ -199,14 +217,13 @@ function trialChecks(problem: VariationalProblem, domain: CoordinateSpace, at: E
   return checks;
 }
 
-
-/** |<psi|psi0>|^2 with the grid's lumped quadrature (on the grid's own function, radial: chi = r R). */
-export function groundOverlap(value: (x: number) => number, domain: CoordinateSpace, grid: GridLevels, norm: number): number {
+/** |<psi|psi_n>|^2 with the grid's lumped quadrature (on the grid's own function, radial: chi = r R), against the grid ground state unless another is given. */
+export function groundOverlap(value: (x: number) => number, domain: CoordinateSpace, grid: GridLevels, norm: number, state: Float64Array = grid.ground): number {
   let sum = 0;
   for (let i = 0; i < grid.nodes.length; i++) {
     const x = grid.nodes[i];
     const trial = value(x) * domain.gridFactor(x);
-    sum += grid.weights[i] * trial * grid.ground[i];
+    sum += grid.weights[i] * trial * state[i];
   }
   return (sum * sum) / norm;
 }
@@ -226,6 +243,7 @@ export function invalidResult(checks: GradedCheck[], counts: EngineResult['count
     bounds: { upper: null, lower: null, weinstein: null, nextLevel: null },
     overlap: null,
     virial: null,
+    virialNote: null,
     optimiser: null,
     checks,
     counts,
@@ -233,5 +251,6 @@ export function invalidResult(checks: GradedCheck[], counts: EngineResult['count
     plots: null,
     states: [],
     basis: null,
+    level: GROUND_LEVEL,
   };
 }

@@ -1,4 +1,5 @@
 import { findBreakpoints } from './breakpoints.ts';
+import { ATOMIC_DISPLAY, g, type ValueDisplay } from './format.ts';
 import type { VariationalProblem } from './problem.ts';
 import { integrateVector, type IntegrationResult, type Partition } from './quadrature.ts';
 import { splitPoints, type CoordinateSpace } from './spaces/space.ts';
@@ -26,8 +27,8 @@ export interface Expectation {
 export const EXPECTATION_DEFAULTS = { relTol: 1e-12, maxIntervals: 2000 };
 
 /**
- * N = <psi|psi>, <T> = (hbar^2/2m) <psi'|psi'> (plus the space's angular part, with its volume element; a mass m(x) that depends on the coordinate goes
- * inside the integral, BenDaniel & Duke, Phys. Rev. 152, 683 (1966)) and <V>,
+ * N = <psi|psi>, <T> = (hbar^2/2m) <psi'|psi'> (plus the space's angular part, with its volume element; a mass m(x)
+ * that depends on the coordinate goes inside the integral, BenDaniel & Duke, Phys. Rev. 152, 683 (1966)) and <V>,
  * in one vector quadrature over the space; the |psi'|^2 form needs no second derivative and is exact for
  * trials that vanish at the walls.
  */
@@ -45,7 +46,7 @@ export function placedExpectation(problem: VariationalProblem, domain: Coordinat
   const centre = Number.isFinite(domain.lo) ? [] : [probe.center];
   const splits = splitPoints(domain, [...potentialBreaks, ...trialBreaks.points, ...centre]);
   const profile = problem.massProfile ?? null;
-  const integrand = domain.energyIntegrand(trial, potential, profile);
+  const integrand = domain.energyIntegrand(trial, potential, profile, probe);
   const result = integrateVector(integrand, 3, { breakpoints: splits, scale: probe.scale, start, ...EXPECTATION_DEFAULTS });
   const evaluations = trialBreaks.evaluations + result.evaluations;
   const [n, tk, v] = result.values;
@@ -57,7 +58,7 @@ export function placedExpectation(problem: VariationalProblem, domain: Coordinat
   const energy = kinetic + potentialEnergy;
   const [en, et, ev] = result.errorEstimates;
   const errorEstimate = (et / twoMass + ev + Math.abs(energy) * en) / Math.abs(norm);
-  const failure = classifyFailure(result, probe);
+  const failure = classifyFailure(result, probe, problem.display ?? ATOMIC_DISPLAY);
   return {
     energy: failure ? Infinity : energy,
     kinetic,
@@ -116,8 +117,8 @@ export function searchExpectation(problem: VariationalProblem, domain: Coordinat
 
 const panelCount = (partition: Partition) => partition.panels.length / 3;
 
-function classifyFailure(result: IntegrationResult, probe: TrialProbe): { kind: NonNullable<Expectation['failure']>; detail: string } | null {
-  if (probe.nonFiniteAt !== null) return { kind: 'non-finite', detail: `the trial is not a finite number at ${probe.nonFiniteAt} (a trial that overflows far out is not square-integrable)` };
+function classifyFailure(result: IntegrationResult, probe: TrialProbe, show: ValueDisplay): { kind: NonNullable<Expectation['failure']>; detail: string } | null {
+  if (probe.nonFiniteAt !== null) return { kind: 'non-finite', detail: `the trial is not a finite number at ${show.length(probe.nonFiniteAt)} (a trial that overflows far out is not square-integrable)` };
   if (result.status === 'non-finite') return { kind: 'non-finite', detail: result.message ?? 'an integrand is not a finite number' };
   if (result.converged && result.values[0] > 0) return null;
   // Attribute the failure to the first integral whose own error estimate is out of bounds.
@@ -125,7 +126,9 @@ function classifyFailure(result: IntegrationResult, probe: TrialProbe): { kind: 
   const words = ['the norm integral of |psi|^2', 'the kinetic integral of |psi\'|^2', 'the potential integral of V |psi|^2'];
   for (let k = 0; k < 3; k++) {
     const bad = !Number.isFinite(result.values[k]) || result.errorEstimates[k] > 1e-6 * Math.abs(result.absValues[k]);
-    if (bad) return { kind: names[k], detail: `${words[k]} does not converge (estimate ${result.values[k].toPrecision(6)} +/- ${result.errorEstimates[k].toPrecision(2)})` };
+    // Relative, so the detail reads the same in any units (the three integrals have different dimensions).
+    const size = Number.isFinite(result.values[k]) ? `relative error estimate ${g(result.errorEstimates[k] / Math.abs(result.values[k]), 2)}` : `estimate ${result.values[k]}`;
+    if (bad) return { kind: names[k], detail: `${words[k]} does not converge (${size})` };
   }
   if (!(result.values[0] > 0)) return { kind: 'not-normalisable', detail: 'the trial is zero everywhere' };
   return null;

@@ -1,5 +1,6 @@
 /** The FE-DVR Hamiltonian on one grid of elements: the matrix that grid-levels diagonalises and refines. */
 import type { SymmetricBand } from './banded-eigen.ts';
+import type { ValueDisplay } from './format.ts';
 import { gllRule, type GllRule } from './gll.ts';
 import { radauRule } from './radau-jacobi.ts';
 
@@ -11,6 +12,8 @@ export interface Assembly {
   massAt: (x: number) => number;
   /** The position-dependent mass, or null for the constant-mass kinetic matrix. */
   profile: { value(x: number): number } | null;
+  /** How messages state energies and positions. */
+  show: ValueDisplay;
   /** Whether a step of a position-dependent mass at an edge node adds the radial step term (space radial). */
   radialMassSteps: boolean;
   /** The potential on the diagonal (with a centrifugal term where the space's grid function carries one). */
@@ -190,7 +193,7 @@ function withPotential(ctx: Assembly, boundaries: number[], a: Assembled, report
   for (let row = 0; row < size; row++) {
     const e = (row + offset) / step;
     const v = Number.isInteger(e) && e > 0 && breaks.has(boundaries[e]) ? breakpointPotential(ctx, boundaries, e) + radialMassStep(ctx, boundaries, e, weights[row]) : ctx.veff(nodes[row]);
-    if (!Number.isFinite(v)) return { ok: false, message: `the potential is not finite at x = ${nodes[row]} (V = ${v})` };
+    if (!Number.isFinite(v)) return { ok: false, message: `the potential is not finite at x = ${ctx.show.length(nodes[row])} (V = ${ctx.show.energy(v)})` };
     for (let k = 0; k < width && row + k < size; k++) upper[row * width + k] /= Math.sqrt(weights[row] * weights[row + k]);
     upper[row * width] += v;
     potential[row] = v;

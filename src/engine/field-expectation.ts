@@ -1,10 +1,9 @@
-import { energyFromIntegrals, varianceOptions } from './cubature/energy-integrands.ts';
-import { integrateProduct, type CubaturePartition, type CubatureResult } from './cubature/integrate-product.ts';
+import { energyFromIntegrals, varianceAbsTol } from './cubature/energy-integrands.ts';
 import type { FieldPlacement } from './field-probe.ts';
 import { probeField } from './field-probe.ts';
 import type { SearchPoint } from './expectation.ts';
 import type { FieldProblem } from './problem.ts';
-import { cubatureAxes } from './spaces/field-space.ts';
+import type { FieldCubatureResult } from './spaces/field-space.ts';
 import type { VarianceResult } from './variance.ts';
 
 /** <H> of a trial of several coordinates at one parameter point, its parts and their error. */
@@ -17,12 +16,13 @@ export interface FieldExpectation {
   failure: 'non-finite' | 'not-normalisable' | 'integrals-diverge' | null;
   failureDetail: string | null;
   placement: FieldPlacement;
-  partition: CubaturePartition | null;
+  /** The cubature's panels, to start a nearby point from (the space's own kind). */
+  partition: unknown;
   evaluations: number;
 }
 
 /** Tighter than the 1-D 1e-12 would cost a product run dearly; the energy still meets ENERGY_RELATIVE_ERROR_LIMIT by far. */
-export const FIELD_EXPECTATION_DEFAULTS = { relTol: 1e-11, maxIntervals: 2000 };
+export const FIELD_EXPECTATION_DEFAULTS = { relTol: 1e-11 };
 
 /**
  * The variance enters only the lower bounds and their slack, where a relative 1e-5 is far below what matters; a
@@ -37,10 +37,10 @@ export function placeField(problem: FieldProblem): FieldPlacement {
 }
 
 /** N, <T>, <V> by product cubature over the space at the parameters already set, placed by `placement`. */
-export function fieldExpectation(problem: FieldProblem, placement: FieldPlacement, start?: CubaturePartition): FieldExpectation {
+export function fieldExpectation(problem: FieldProblem, placement: FieldPlacement, start?: unknown): FieldExpectation {
   const { space } = problem;
   const integrand = space.energyIntegrand(problem.trial, problem.potential);
-  const result = integrateProduct(integrand, 3, cubatureAxes(space, placement.axes), { ...FIELD_EXPECTATION_DEFAULTS, order: space.order, start });
+  const result = space.integrate(integrand, 3, placement.axes, { relTol: FIELD_EXPECTATION_DEFAULTS.relTol, start });
   const parts = energyFromIntegrals(result);
   const failure = classify(result, placement);
   return {
@@ -60,7 +60,7 @@ export function fieldExpectation(problem: FieldProblem, placement: FieldPlacemen
  */
 export function searchFieldExpectation(problem: FieldProblem, atStart: FieldExpectation): (parameters: ArrayLike<number>) => SearchPoint {
   let placement = atStart.placement;
-  let partition: CubaturePartition | null = atStart.partition;
+  let partition: unknown = atStart.partition;
   return (parameters) => {
     problem.trial.setParameters(parameters);
     let probed = 0;
@@ -79,7 +79,7 @@ export function searchFieldExpectation(problem: FieldProblem, atStart: FieldExpe
 export function fieldVariance(problem: FieldProblem, at: FieldExpectation): VarianceResult {
   const { space } = problem;
   const integrand = space.varianceIntegrand(problem.trial, problem.potential, at.energy);
-  const result = integrateProduct(integrand, 1, cubatureAxes(space, at.placement.axes), varianceOptions(at, { relTol: FIELD_VARIANCE_REL_TOL, order: space.order }));
+  const result = space.integrate(integrand, 1, at.placement.axes, { relTol: FIELD_VARIANCE_REL_TOL, absTol: varianceAbsTol(at) });
   if (!result.converged || !Number.isFinite(result.values[0])) {
     return {
       value: null,
@@ -91,7 +91,7 @@ export function fieldVariance(problem: FieldProblem, at: FieldExpectation): Vari
   return { value: result.values[0] / at.norm, errorEstimate: result.errorEstimates[0] / at.norm, note: null, evaluations: result.evaluations };
 }
 
-function classify(result: CubatureResult, placement: FieldPlacement): { kind: NonNullable<FieldExpectation['failure']>; detail: string } | null {
+function classify(result: FieldCubatureResult, placement: FieldPlacement): { kind: NonNullable<FieldExpectation['failure']>; detail: string } | null {
   if (placement.nonFiniteAt !== null) return { kind: 'non-finite', detail: `the trial is not a finite number at (${Array.from(placement.nonFiniteAt, (v) => v.toPrecision(6)).join(', ')}) (a trial that overflows far out is not square-integrable)` };
   if (result.status === 'non-finite') return { kind: 'non-finite', detail: result.message ?? 'an integrand is not a finite number' };
   if (result.converged && result.values[0] > 0) return null;

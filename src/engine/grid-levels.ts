@@ -4,6 +4,7 @@
  */
 import { lowestEigenpairs } from './banded-eigen.ts';
 import { buildGrid, type Assembly, type Grid, type Outcome } from './fe-dvr.ts';
+import { ATOMIC_DISPLAY, type ValueDisplay } from './format.ts';
 
 export type GridSpace = 'line' | 'half-line' | 'radial' | 'box' | 'plane';
 
@@ -34,6 +35,8 @@ export interface GridProblem {
    */
   levels?: number;
   relTol?: number;
+  /** How messages state energies and positions (default: atomic units). */
+  display?: ValueDisplay;
   maxNodes?: number;
 }
 
@@ -306,12 +309,12 @@ function tailEnd(ctx: Context, estimate: StateEstimate, direction: number, depth
   let exponent = 0;
   for (let steps = 0; exponent < depth; steps++) {
     const v = ctx.veff(x);
-    if (Number.isNaN(v)) return { ok: false, message: `the potential is NaN at x = ${x}` };
+    if (Number.isNaN(v)) return { ok: false, message: `the potential is NaN at x = ${ctx.show.length(x)}` };
     if (v === Infinity) return { ok: true, value: x };
     const kappa2 = 2 * ctx.massAt(x) * (v - energy);
     const distance = Math.abs(x - center);
     if (steps > 100000 || distance > 1e9 * width) {
-      return { ok: false, message: `the tail of the level ${energy} does not decay within ${distance} of x = ${center}` };
+      return { ok: false, message: `the tail of the level ${ctx.show.energy(energy)} does not decay within ${ctx.show.length(distance)} of x = ${ctx.show.length(center)}` };
     }
     // Steps follow the local decay length, or grow with the distance where V - E is nearly zero; an attractive
     // singularity (V = -Infinity) is simply stepped over.
@@ -384,7 +387,7 @@ function sizeDomain(ctx: Context, start: [number, number], first: StateEstimate)
     if (sameDomain(domain, next)) break;
     domain = next;
   }
-  return last ? { ok: true, value: last } : { ok: false, message: `no bound level below the continuum threshold ${ctx.threshold} was found` };
+  return last ? { ok: true, value: last } : { ok: false, message: `no bound level below the continuum threshold ${ctx.show.energy(ctx.threshold)} was found` };
 }
 
 function nextResolution(resolution: Resolution): Resolution {
@@ -454,7 +457,7 @@ function confirmDomain(ctx: Context, refined: Refined, estimate: StateEstimate, 
   const errorEstimate = changes
     ? changes.map((d, i) => Math.max(d, refined.errorEstimate[i]))
     : solved.value.bound.map(() => Infinity);
-  const message = settled ? null : `the levels still move when the domain is extended to [${solved.value.domain.join(', ')}]`;
+  const message = settled ? null : `the levels still move when the domain is extended to [${solved.value.domain.map((x) => ctx.show.length(x)).join(', ')}]`;
   return { ok: true, value: { refined: { solution: solved.value, errorEstimate, converged: settled, message }, retry: !settled } };
 }
 
@@ -486,7 +489,7 @@ function report(ctx: Context, refined: Refined): GridLevels {
   const found = solution.bound.length;
   const shortfall =
     ctx.wantedExplicitly && found < ctx.wanted
-      ? `only ${found} bound level${found === 1 ? '' : 's'} below the continuum threshold ${ctx.threshold}, ${ctx.wanted} asked for`
+      ? `only ${found} bound level${found === 1 ? '' : 's'} below the continuum threshold ${ctx.show.energy(ctx.threshold)}, ${ctx.wanted} asked for`
       : null;
   const message = [shortfall, refined.message, eigenNote].filter((m) => m !== null).join('; ');
   return {
@@ -563,6 +566,7 @@ export function gridLevels(problem: GridProblem): GridLevels {
     counters,
     power: problem.space === 'plane' ? 2 * Math.abs(problem.angularMomentum ?? 0) + 1 : null,
     radialMassSteps: problem.space === 'radial',
+    show: problem.display ?? ATOMIC_DISPLAY,
   };
   const invalid = validate(problem);
   if (invalid) return failure(base, invalid);

@@ -14,7 +14,7 @@ export function gridReference(problem: ProblemBase, space: CoordinateSpace, brea
   const started = performance.now();
   if (!problem.reference.solve) return { grid: null, gridError: null, referenceMs: 0 };
   try {
-    const grid = space.gridLevels({ mass: problem.mass, massProfile: problem.massProfile ?? null, potential: problem.potential, breakpoints, hint, levels });
+    const grid = space.gridLevels({ mass: problem.mass, massProfile: problem.massProfile ?? null, potential: problem.potential, breakpoints, hint, levels, display: problem.display });
     return { grid, gridError: null, referenceMs: performance.now() - started };
   } catch (error) {
     return { grid: null, gridError: error instanceof Error ? error.message : String(error), referenceMs: performance.now() - started };

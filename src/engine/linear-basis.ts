@@ -3,6 +3,7 @@
  * to the lowest several levels at once (Hylleraas & Undheim, Z. Phys. 65, 759 (1930); MacDonald, Phys. Rev.
  * 43, 830 (1933)).
  */
+import { ATOMIC_DISPLAY, type ValueDisplay } from './format.ts';
 import { WALL_TOLERANCE } from './tolerances.ts';
 import { EXPECTATION_DEFAULTS } from './expectation.ts';
 import { GENERALIZED_DEFAULTS, solveGeneralized } from './generalized-eigen.ts';
@@ -13,7 +14,7 @@ import { spaceOf } from './spaces/space-of.ts';
 import { splitPoints, type CoordinateSpace, type Domain } from './spaces/space.ts';
 import { probeTrial } from './trial-probe.ts';
 
-export interface LinearBasisProblem extends Pick<ProblemBase, 'space' | 'box' | 'angularMomentum' | 'mass' | 'massProfile' | 'potential'> {
+export interface LinearBasisProblem extends Pick<ProblemBase, 'space' | 'box' | 'angularMomentum' | 'mass' | 'massProfile' | 'potential' | 'display'> {
   basis: LinearBasis;
   /** Interior quadrature split points: kinks or steps of the potential and of the basis functions. */
   breakpoints: number[];
@@ -166,9 +167,9 @@ export function solveLinearBasis(
   if (probe.nonFiniteAt !== null) {
     const x = probe.nonFiniteAt;
     const index = functions.findIndex((f) => !Number.isFinite(f.value(x)));
-    return failed('non-finite', `basis[${index}] is not a finite number at ${x} (a function that overflows far out is not square-integrable)`);
+    return failed('non-finite', `basis[${index}] is not a finite number at ${(problem.display ?? ATOMIC_DISPLAY).length(x)} (a function that overflows far out is not square-integrable)`);
   }
-  const wall = wallViolation(functions, domain, probe.peakAmplitude, settings.wallTolerance);
+  const wall = wallViolation(functions, domain, probe.peakAmplitude, settings.wallTolerance, problem.display ?? ATOMIC_DISPLAY);
   if (wall) return failed('hard-wall', wall);
 
   const context: QuadratureContext = {
@@ -284,13 +285,13 @@ function quadraticForm(c: Float64Array, m: number[][], absolute = false): number
   return sum;
 }
 
-function wallViolation(functions: BasisFunction[], domain: Domain, peak: number, tolerance: number): string | null {
+function wallViolation(functions: BasisFunction[], domain: Domain, peak: number, tolerance: number, show: ValueDisplay): string | null {
   for (const wall of domain.walls) {
     for (let i = 0; i < functions.length; i++) {
       const phi = functions[i].value(wall);
       const ratio = Math.abs(phi) / peak;
       if (!(ratio <= tolerance)) {
-        return `basis[${i}] is ${phi.toPrecision(4)} at the wall ${wall} (${ratio.toPrecision(3)} of the basis's peak; every function must vanish there)`;
+        return `basis[${i}] is ${phi.toPrecision(4)} at the wall ${show.length(wall)} (${ratio.toPrecision(3)} of the basis's peak; every function must vanish there)`;
       }
     }
   }

@@ -16,7 +16,7 @@ export interface DensityProfile {
   /** On `plane` the density in r is r |R|^2 (volume element r dr), not the radial r^2 |R|^2. */
   plane?: boolean;
   samples: Array<{ x: number; trial: number; potential: number | null }>;
-  /** The grid ground state at its own nodes inside the window (no interpolation). */
+  /** The grid state the trial is compared with (the ground state by default) at its own nodes inside the window (no interpolation). */
   grid: Array<{ x: number; density: number }>;
 }
 
@@ -45,6 +45,8 @@ export interface PlotInputs {
   center: number;
   scale: number;
   grid: GridLevels | null;
+  /** Which grid level's density is drawn (default 0, the ground level). */
+  gridLevel?: number;
 }
 
 /** What the energy scans need, on any space. */
@@ -107,10 +109,11 @@ function densityProfile(inputs: PlotInputs): DensityProfile {
     return { x, trial: (psi * psi * domain.weight(x)) / inputs.norm, potential: Number.isFinite(v) ? v : null };
   });
   const grid: DensityProfile['grid'] = [];
-  if (inputs.grid) {
-    const { nodes, ground } = inputs.grid;
-    // Grid vectors are normalised with the lumped weights, so ground[i]^2 is the density at node i (radial: of chi = r R).
-    for (let i = 0; i < nodes.length; i++) if (nodes[i] >= lo && nodes[i] <= hi) grid.push({ x: nodes[i], density: ground[i] * ground[i] });
+  const state = inputs.grid?.states[inputs.gridLevel ?? 0];
+  if (inputs.grid && state) {
+    const { nodes } = inputs.grid;
+    // Grid vectors are normalised with the lumped weights, so state[i]^2 is the density at node i (radial: of chi = r R).
+    for (let i = 0; i < nodes.length; i++) if (nodes[i] >= lo && nodes[i] <= hi) grid.push({ x: nodes[i], density: state[i] * state[i] });
   }
   return { coordinate: domain.coordinate, ...(domain.name === 'plane' ? { plane: true } : {}), samples, grid };
 }

@@ -56,6 +56,8 @@ export interface ProblemBase {
   plots: ReadonlyArray<'scan' | 'density'>;
   /** How check details state values (default: atomic units). */
   display?: ValueDisplay;
+  /** The level a single trial approximates, when the block declares it (`symmetry`, `level`); default the ground level. */
+  level?: { symmetry: 'even' | 'odd' | null; index: number };
 }
 
 /** A single trial function with parameters: the variational method proper. */

@@ -12,7 +12,7 @@ export interface Check {
 export interface GradedCheck extends Check {
   failure: Exclude<Status, 'confirmed'>;
   /** The block field a failure points at, when it is not the trial (or basis) itself. */
-  field?: 'potential' | 'mass';
+  field?: 'potential' | 'mass' | 'symmetry';
 }
 
 export function gradedCheck(name: string, pass: boolean, detail: string, failure: GradedCheck['failure'], field?: GradedCheck['field']): GradedCheck {

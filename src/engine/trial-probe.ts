@@ -1,4 +1,4 @@
-import { g } from './format.ts';
+import { ATOMIC_DISPLAY, g, type ValueDisplay } from './format.ts';
 import type { TrialFamily } from './problem.ts';
 import type { CoordinateSpace, Domain } from './spaces/space.ts';
 
@@ -8,6 +8,8 @@ export interface TrialProbe {
   scale: number;
   /** Largest |psi| seen (radial: |R|), the yardstick for the hard-wall condition. */
   peakAmplitude: number;
+  /** Largest density |psi|^2 seen (radial: r^2 |R|^2), the yardstick for where the trial has decayed. */
+  peakDensity: number;
   /** A coordinate where the trial was not a finite number, if any. */
   nonFiniteAt: number | null;
   evaluations: number;
@@ -40,7 +42,29 @@ export function probeTrial(value: (x: number) => number, domain: CoordinateSpace
     if (density[i] >= appreciable) scale = Math.max(scale, Math.abs(points[i] - center));
   }
   if (!(scale > 0)) scale = Number.isFinite(domain.hi - domain.lo) ? (domain.hi - domain.lo) / 2 : 1;
-  return { center, scale, peakAmplitude, nonFiniteAt, evaluations: points.length };
+  return { center, scale, peakAmplitude, peakDensity: density[best], nonFiniteAt, evaluations: points.length };
+}
+
+/**
+ * Outside its bulk, a point where the trial's density is below this fraction of its peak is left out
+ * of the integrals: such a tail adds far less than their tolerance (1e-12 relative), while a trial
+ * that is not normalisable (density falling like 1/x or slower) never gets this low within the
+ * quadrature's reach of about 1e16 length scales, so its divergence is still caught.
+ */
+const NEGLIGIBLE_DENSITY = 1e-40;
+
+/**
+ * Whether the integrands need not be formed at x, given the trial's value psi there: x lies beyond
+ * the trial's bulk (farther than `scale` from its centre) and its density is negligible. Far out the
+ * trial's derivatives are products of factors that under- and overflow (sech^(p-1) with sech = 0 is
+ * Infinity, times sech tanh = 0 is NaN) although the integrands they enter are 0 to every digit;
+ * the domain ends, in effect, where the trial has decayed. A node of the trial (density 0, slope not)
+ * lies inside its bulk and is integrated as before.
+ */
+export function negligibleAt(probe: TrialProbe, weight: (x: number) => number, x: number, psi: number): boolean {
+  if (!(Math.abs(x - probe.center) > probe.scale)) return false;
+  const density = psi * psi * weight(x);
+  return density < NEGLIGIBLE_DENSITY * probe.peakDensity;
 }
 
 // Its densities go to one reused buffer: a typed array this size lives outside the heap and costs
@@ -62,13 +86,16 @@ export interface NonFiniteFactor {
   detail: string;
 }
 
-export function findNonFiniteFactor(potential: (x: number) => number, trial: TrialFamily, domain: CoordinateSpace): NonFiniteFactor | null {
+export function findNonFiniteFactor(potential: (x: number) => number, trial: TrialFamily, domain: CoordinateSpace, probe: TrialProbe, show: ValueDisplay = ATOMIC_DISPLAY): NonFiniteFactor | null {
   const coordinate = domain.coordinate;
-  const samples = probePoints(domain).map((x) => ({ x, psi: trial.value(x) }));
+  // Where the trial has decayed the integrands are not formed, so nothing there is at fault.
+  const samples = probePoints(domain)
+    .map((x) => ({ x, psi: trial.value(x) }))
+    .filter((p) => !(Number.isFinite(p.psi) && negligibleAt(probe, domain.weight, p.x, p.psi)));
   let peak = { x: 0, psi: 0 };
   for (const p of samples) if (Math.abs(p.psi) > Math.abs(peak.psi) && Number.isFinite(p.psi)) peak = p;
   samples.sort((a, b) => Math.abs(a.x - peak.x) - Math.abs(b.x - peak.x));
-  const at = (x: number) => `${coordinate} = ${g(x, 6)}`;
+  const at = (x: number) => `${coordinate} = ${show.length(x, 6)}`;
 
   const bad = samples.find((p) => !Number.isFinite(p.psi));
   if (bad) return { culprit: 'trial', detail: `the trial is ${g(bad.psi)} at ${at(bad.x)} (${Number.isNaN(bad.psi) ? 'it is not defined there' : 'a trial that overflows is not square-integrable'})` };
@@ -78,7 +105,7 @@ export function findNonFiniteFactor(potential: (x: number) => number, trial: Tri
     if (!Number.isFinite(v * psi * psi)) {
       return {
         culprit: 'potential',
-        detail: `V |psi|^2 is not a finite number at ${at(x)} (the potential there is ${g(v)}, the trial ${g(psi, 4)}); the potential must be finite wherever the trial lives`,
+        detail: `V |psi|^2 is not a finite number at ${at(x)} (the potential there is ${show.energy(v)}, the trial ${g(psi, 4)}); the potential must be finite wherever the trial lives`,
       };
     }
   }

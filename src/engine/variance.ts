@@ -1,5 +1,5 @@
 import type { Expectation } from './expectation.ts';
-import { g } from './format.ts';
+import { ATOMIC_DISPLAY, g } from './format.ts';
 import type { VariationalProblem } from './problem.ts';
 import { integrateVector } from './quadrature.ts';
 import type { CoordinateSpace } from './spaces/space.ts';
@@ -35,7 +35,7 @@ export function energyVariance(problem: VariationalProblem, domain: CoordinateSp
     if (!profile) {
       const jump = Math.abs(trial.d1(x + h) - trial.d1(x - h));
       if (jump > CUSP_TOLERANCE * (peakAmplitude / scale)) {
-        return { value: null, errorEstimate: 0, note: `the trial's slope jumps at ${x.toPrecision(6)}, so H psi holds a delta function and the variance is infinite`, evaluations: 2 };
+        return { value: null, errorEstimate: 0, note: `the trial's slope jumps at ${(problem.display ?? ATOMIC_DISPLAY).length(x, 6)}, so H psi holds a delta function and the variance is infinite`, evaluations: 2 };
       }
       continue;
     }
@@ -43,10 +43,10 @@ export function energyVariance(problem: VariationalProblem, domain: CoordinateSp
     const jump = Math.abs(trial.d1(x + h) / mRight - trial.d1(x - h) / mLeft);
     if (jump > (CUSP_TOLERANCE * (peakAmplitude / scale)) / Math.max(mLeft, mRight)) {
       const where = mLeft === mRight ? "the trial's slope jumps" : `the mass steps from ${g(mLeft, 6)} to ${g(mRight, 6)} and the trial's psi'/m is not continuous (BenDaniel–Duke)`;
-      return { value: null, errorEstimate: 0, note: `at ${x.toPrecision(6)} ${where}, so H psi holds a delta function and the variance is infinite`, evaluations: 2 };
+      return { value: null, errorEstimate: 0, note: `at ${(problem.display ?? ATOMIC_DISPLAY).length(x, 6)} ${where}, so H psi holds a delta function and the variance is infinite`, evaluations: 2 };
     }
   }
-  const integrand = domain.varianceIntegrand(trial, potential, mass, energy, profile);
+  const integrand = domain.varianceIntegrand(trial, potential, mass, energy, profile, at.probe);
   // A nearly exact trial has a variance at rounding level, which no relative tolerance can resolve.
   const absTol = VARIANCE_FLOOR * Math.max(energy * energy, 1e-300) * norm;
   // The energy integrals' panels, on the same split points and scale, are a good start for H psi too.

@@ -89,7 +89,7 @@ function evaluateFieldBlock(spec: BlockSpec): Evaluated {
 }
 
 /** What every engine problem takes from the spec besides its space, potential and trial. */
-function shared(spec: BlockSpec): Pick<ProblemBase, 'parameters' | 'reference' | 'claim' | 'plots' | 'display'> {
+function shared(spec: BlockSpec): Pick<ProblemBase, 'parameters' | 'reference' | 'claim' | 'plots' | 'display' | 'level'> {
   return {
     parameters: spec.varied,
     reference: {
@@ -99,6 +99,7 @@ function shared(spec: BlockSpec): Pick<ProblemBase, 'parameters' | 'reference' |
     claim: spec.claim,
     plots: spec.report.plots,
     display: spec.quantity ? blockUnitsDisplay(spec.quantity) : undefined,
+    level: spec.level && { symmetry: spec.level.symmetry, index: spec.level.index },
   };
 }
 
@@ -114,6 +115,8 @@ function guarded(spec: BlockSpec, run: () => EngineResult, trees: Extract<Evalua
 
 function toBlockResult(file: string, spec: BlockSpec, inputs: BlockInputs, engine: EngineResult, hash: string, started: number): BlockResult {
   const grid = engine.grid && engine.grid.levels.length > 0 ? engine.grid : null;
+  const { level } = engine;
+  const gridLevel = grid?.levels[level.gridIndex] ?? null;
   const published = spec.reference.energy ? { energy: spec.reference.energy.value, tolerance: spec.reference.energy.tolerance, source: spec.reference.source ?? '' } : null;
   const parameters: BlockResult['parameters'] = {};
   for (const p of engine.parameters) parameters[p.name] = { value: p.value, unit: null, varied: true };
@@ -128,7 +131,9 @@ function toBlockResult(file: string, spec: BlockSpec, inputs: BlockInputs, engin
               ? { file, line: spec.potential.line, block: spec.id, field: 'potential', message: c.detail }
               : c.field === 'mass'
                 ? { file, line: typeof spec.mass === 'number' ? spec.line : spec.mass.line, block: spec.id, field: 'mass', message: c.detail }
-                : { file, line: (spec.trial ?? spec.basis![0]).line, block: spec.id, field: spec.trial ? 'trial' : 'basis', message: c.detail },
+                : c.field === 'symmetry'
+                  ? { file, line: spec.level?.line ?? spec.line, block: spec.id, field: 'symmetry', message: c.detail }
+                  : { file, line: (spec.trial ?? spec.basis![0]).line, block: spec.id, field: spec.trial ? 'trial' : 'basis', message: c.detail },
           ) : [];
   return {
     id: spec.id,
@@ -148,17 +153,19 @@ function toBlockResult(file: string, spec: BlockSpec, inputs: BlockInputs, engin
     reference:
       grid || published
         ? {
-            energy: grid ? grid.levels[0] : published!.energy,
-            excited: grid && grid.levels.length > 1 ? grid.levels[1] : null,
+            energy: grid ? gridLevel : published!.energy,
+            excited: grid?.levels[level.nextGridIndex] ?? null,
             threshold: grid && Number.isFinite(grid.threshold) ? grid.threshold : null,
             method: grid ? 'grid' : 'published',
             published,
+            level: { index: level.index, symmetry: level.symmetry },
           }
         : null,
-    errors: { vsGrid: relative(grid ? grid.levels[0] : null), vsPublished: relative(published?.energy ?? null) },
+    errors: { vsGrid: relative(gridLevel), vsPublished: relative(published?.energy ?? null) },
     bounds: { upper: engine.bounds.upper, lower: engine.bounds.lower, weinstein: engine.bounds.weinstein },
     overlap: engine.overlap,
     virial: engine.virial,
+    virialNote: engine.virialNote,
     claim: spec.claim
       ? { energy: spec.claim.energy?.value ?? null, tolerance: spec.claim.energy?.tolerance ?? null, parameters: spec.claim.parameters }
       : null,

@@ -28,6 +28,7 @@ export function invalidBlock(id: string, line: number, caption: string | null, p
     bounds: { upper: null, lower: null, weinstein: null },
     overlap: null,
     virial: null,
+    virialNote: null,
     claim: null,
     checks: [],
     plots: null,

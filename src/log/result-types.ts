@@ -33,7 +33,10 @@ export interface BlockInputs {
   trialTex: string | null;
   /** The basis functions typeset, or null for a trial block. */
   basisTex: string[] | null;
+  /** Declared constants: in atomic units, or in quantity mode in the unit `constantUnits` names. */
   constants: Record<string, number>;
+  /** Quantity mode only: the unit each declared constant is stated in (as written, else coherent SI; null for a pure number). */
+  constantUnits?: Record<string, string | null>;
   ranges: Array<{ name: string; start: number; min: number; max: number }>;
 }
 
@@ -61,11 +64,18 @@ export interface BlockResult {
     threshold: number | null;
     method: 'grid' | 'published' | null;
     published: { energy: number; tolerance: number; source: string } | null;
+    /**
+     * The level `energy` (and the published value) stands for: 0-based among the levels of `symmetry` (parity under
+     * x -> -x), or among all levels when it is null; `excited` is the next level of the same symmetry.
+     */
+    level: { index: number; symmetry: 'even' | 'odd' | null };
   } | null;
   errors: { vsGrid: number | null; vsPublished: number | null };
   bounds: { upper: number | null; lower: number | null; weinstein: [number, number] | null };
   overlap: number | null;
   virial: { exponent: number; ratio: number } | null;
+  /** Why no virial ratio is given although the potential is a power law (hard walls away from the origin, a mass m(x)); else null. */
+  virialNote: string | null;
   claim: { energy: number | null; tolerance: number | null; parameters: Record<string, { value: number; tolerance: number }> } | null;
   checks: Check[];
   /** Samples behind the scan and density plots (RECORD-FORMAT `report.plots`). */

@@ -1,36 +1,74 @@
 import type { FieldCut, FieldDensity } from '../engine/field-plot-data.ts';
 import { g, type ValueDisplay } from '../engine/format.ts';
-import type { QuantityMode } from '../spec/types.ts';
+import type { QuantityMode, StatedUnit } from '../spec/types.ts';
 import type { BlockResult } from './result-types.ts';
 
+const PURE: StatedUnit = { unit: null, perAtomic: 1 };
+
 /**
- * A result computed in atomic units, stated in the units of its quantity-mode block: energies in the block's (or
- * report's) energy unit, lengths in its length unit, parameters in the units they were written in. Relative
- * errors and the check details stay as computed.
+ * The one place that knows which unit each kind of value of a quantity-mode block is stated in:
+ * energies in the block's (or report's) energy unit, lengths in its length unit, parameters and
+ * declared constants in the units they were written in, the norm integral in a power of the length unit.
+ * Both the numbers (inBlockUnits) and the words of check details (blockUnitsDisplay) come from here.
+ */
+function scalesOf(units: QuantityMode): BlockScales {
+  return {
+    energy: { unit: units.energy.unit, perAtomic: units.energy.perHartree },
+    length: { unit: units.length.unit, perAtomic: units.length.perBohr },
+    norm: units.norm,
+    parameter: (name) => units.parameters[name] ?? PURE,
+    constant: (name) => units.constants[name] ?? PURE,
+  };
+}
+
+interface BlockScales {
+  energy: StatedUnit;
+  length: StatedUnit;
+  norm: StatedUnit;
+  parameter(name: string): StatedUnit;
+  constant(name: string): StatedUnit;
+}
+
+/** A value with its unit, as a message states it: "5 nm", "12.9". */
+function stated(value: number, scale: StatedUnit, digits?: number): string {
+  return `${g(value * scale.perAtomic, digits)}${scale.unit ? ` ${scale.unit}` : ''}`;
+}
+
+/**
+ * A result computed in atomic units, stated in the units of its quantity-mode block. Relative errors
+ * and ratios stay as computed.
  */
 export function inBlockUnits(result: BlockResult, units: QuantityMode): BlockResult {
-  const E = units.energy.perHartree;
-  const L = units.length.perBohr;
+  const s = scalesOf(units);
+  const E = s.energy.perAtomic;
+  const L = s.length.perAtomic;
   const energy = (v: number) => v * E;
   const maybe = (v: number | null) => (v === null ? null : v * E);
-  const parameter = (name: string, v: number) => v * (units.parameters[name]?.perAtomic ?? 1);
+  const parameter = (name: string, v: number) => v * s.parameter(name).perAtomic;
   const { reference, claim, plots, inputs, diagnostics } = result;
+  const varied = Object.keys(result.parameters).filter((name) => result.parameters[name].varied);
+  const declared = inputs ? Object.keys(inputs.constants).filter((name) => !units.bound.includes(name)) : [];
   return {
     ...result,
     inputs: inputs && {
       ...inputs,
       lengthUnit: units.length.unit,
       box: inputs.box && [inputs.box[0] * L, inputs.box[1] * L],
-      constants: Object.fromEntries(Object.entries(inputs.constants).filter(([name]) => !units.bound.includes(name))),
+      constants: Object.fromEntries(declared.map((name) => [name, inputs.constants[name] * s.constant(name).perAtomic])),
+      constantUnits: Object.fromEntries(declared.map((name) => [name, s.constant(name).unit])),
       ranges: inputs.ranges.map((r) => ({ name: r.name, start: parameter(r.name, r.start), min: parameter(r.name, r.min), max: parameter(r.name, r.max) })),
     },
     energy: result.energy && { value: energy(result.energy.value), unit: units.energy.unit },
     parameters: Object.fromEntries(
-      Object.entries(result.parameters).map(([name, p]) => [name, { ...p, value: parameter(name, p.value), unit: units.parameters[name]?.unit ?? null }]),
+      Object.entries(result.parameters).map(([name, p]) => [name, { ...p, value: parameter(name, p.value), unit: s.parameter(name).unit }]),
     ),
     variance: result.variance === null ? null : result.variance * E * E,
-    states: result.states.map((s) => ({ energy: energy(s.energy), reference: maybe(s.reference), errorEstimate: s.errorEstimate * Math.abs(E) })),
-    components: result.components && { ...result.components, kinetic: energy(result.components.kinetic), potential: energy(result.components.potential) },
+    states: result.states.map((state) => ({ energy: energy(state.energy), reference: maybe(state.reference), errorEstimate: state.errorEstimate * Math.abs(E) })),
+    components: result.components && {
+      kinetic: energy(result.components.kinetic),
+      potential: energy(result.components.potential),
+      norm: result.components.norm * s.norm.perAtomic,
+    },
     reference: reference && {
       ...reference,
       energy: maybe(reference.energy),
@@ -59,13 +97,18 @@ export function inBlockUnits(result: BlockResult, units: QuantityMode): BlockRes
       density: plots.density && {
         coordinate: plots.density.coordinate,
         ...(plots.density.plane ? { plane: true } : {}),
-        samples: plots.density.samples.map((s) => ({ x: s.x * L, trial: s.trial / L, potential: maybe(s.potential) })),
-        grid: plots.density.grid.map((g) => ({ x: g.x * L, density: g.density / L })),
+        samples: plots.density.samples.map((x) => ({ x: x.x * L, trial: x.trial / L, potential: maybe(x.potential) })),
+        grid: plots.density.grid.map((p) => ({ x: p.x * L, density: p.density / L })),
       },
       field: plots.field && fieldInUnits(plots.field, L, maybe),
     },
     diagnostics: diagnostics && {
       ...diagnostics,
+      // d2E / dp_i dp_j: an energy per unit of each of the two parameters (varied ones, in the engine's order).
+      optimiser: diagnostics.optimiser && {
+        ...diagnostics.optimiser,
+        curvature: diagnostics.optimiser.curvature.map((row, i) => row.map((c, j) => (c * E) / (s.parameter(varied[i]).perAtomic * s.parameter(varied[j]).perAtomic))),
+      },
       energyError: diagnostics.energyError === null ? null : diagnostics.energyError * Math.abs(E),
       grid: diagnostics.grid && { ...diagnostics.grid, domain: [diagnostics.grid.domain[0] * L, diagnostics.grid.domain[1] * L] },
     },
@@ -91,11 +134,11 @@ function fieldInUnits(field: FieldDensity, L: number, energy: (v: number | null)
 
 /** Check details of a quantity-mode block in its own units (every quantity in a detail scales linearly). */
 export function blockUnitsDisplay(units: QuantityMode): ValueDisplay {
+  const s = scalesOf(units);
   return {
-    energy: (value, digits) => `${g(value * units.energy.perHartree, digits)} ${units.energy.unit}`,
-    parameter: (name, value, digits) => {
-      const p = units.parameters[name];
-      return p ? `${g(value * p.perAtomic, digits)}${p.unit ? ` ${p.unit}` : ''}` : g(value, digits);
-    },
+    energy: (value, digits) => stated(value, s.energy, digits),
+    parameter: (name, value, digits) => stated(value, s.parameter(name), digits),
+    length: (value, digits) => stated(value, s.length, digits),
+    norm: (value, digits) => stated(value, s.norm, digits),
   };
 }

@@ -1,6 +1,7 @@
 import katex from 'katex';
 import type { LastCommit } from '../log/git-audit.ts';
 import type { Provenance } from '../log/provenance.ts';
+import { describeLevel } from '../engine/parity.ts';
 import type { BlockInputs, BlockResult } from '../log/result-types.ts';
 import { escapeHtml, formatNumber } from './html.ts';
 import { renderPlots } from './plots.ts';
@@ -54,10 +55,12 @@ function renderInputs(result: BlockResult): string {
   const inputs = result.inputs!;
   const q = inputs.coordinate;
   const kinetic = inputs.massTex === null ? constantMassKinetic(inputs) : profileKinetic(inputs);
+  // In quantity mode the walls are stated in the block's length unit and the mass in electron masses.
+  const lengthUnit = result.quantity ? `\\ \\mathrm{${inputs.lengthUnit}}` : '';
+  const where = whereTex(inputs, lengthUnit);
   const massTex = inputs.masses
     ? Object.entries(inputs.masses).map(([c, m]) => `m_{${coordinateTex(c)}} = ${m}`).join(', ')
-    : inputs.massTex === null ? `m = ${inputs.mass}` : `m(${q}) = ${inputs.massTex}`;
-  const where = whereTex(inputs);
+    : inputs.massTex === null ? `m = ${result.quantity ? `${inputs.mass}\\,m_e` : `${inputs.mass}`}` : `m(${q}) = ${inputs.massTex}`;
   const rows = [
     `<div>${tex(`H = ${kinetic} + ${inputs.potentialTex}, \\quad ${where}, \\quad ${massTex}`, true)}</div>`,
     inputs.trialTex !== null
@@ -65,9 +68,11 @@ function renderInputs(result: BlockResult): string {
       : `<div>Basis (linear variational method, ${result.states.length} level${result.states.length === 1 ? '' : 's'} reported):${tex(`${stateTex(inputs)} = \\sum_i c_i \\phi_i(${inputs.coordinates.map(coordinateTex).join(', ')})`, true)}<ol start="0" class="gw-basis">${(inputs.basisTex ?? []).map((b) => `<li>${tex(`\\phi = ${b}`)}</li>`).join('')}</ol></div>`,
   ];
   // Units stay outside the math: they are written as mathjs spells them (nm^-1), not as TeX.
-  const unitOf = (name: string) => (result.parameters[name]?.unit ? ` ${escapeHtml(result.parameters[name].unit!)}` : '');
-  const ranges = inputs.ranges.map((r) => `${tex(`${r.name} \\in [${formatNumber(r.min, 8)}, ${formatNumber(r.max, 8)}]`)}${unitOf(r.name)}, start ${formatNumber(r.start, 8)}`).join('; ');
-  const constants = Object.entries(inputs.constants).map(([k, v]) => tex(`${k} = ${formatNumber(v, 10)}`)).join(', ');
+  // From the block's units rather than the results, so an invalid block's ranges keep theirs too.
+  const unitOf = (name: string) => (result.quantity?.parameters[name]?.unit ? ` ${escapeHtml(result.quantity.parameters[name].unit!)}` : '');
+  const ranges = inputs.ranges.map((r) => `${tex(`${r.name} \\in [${formatNumber(r.min, 8)}, ${formatNumber(r.max, 8)}]`)}${unitOf(r.name)}, start ${formatNumber(r.start, 8)}${unitOf(r.name)}`).join('; ');
+  const constantUnit = (name: string) => (inputs.constantUnits?.[name] ? ` ${escapeHtml(inputs.constantUnits[name]!)}` : '');
+  const constants = Object.entries(inputs.constants).map(([k, v]) => `${tex(`${k} = ${formatNumber(v, 10)}`)}${constantUnit(k)}`).join(', ');
   if (ranges) rows.push(`<p>Varied: ${ranges}</p>`);
   if (constants) rows.push(`<p>Constants: ${constants}</p>`);
   return `<div class="gw-inputs">${rows.join('\n')}</div>`;
@@ -102,10 +107,10 @@ function stateTex(inputs: BlockInputs): string {
 }
 
 /** Where the coordinates range. */
-function whereTex(inputs: BlockInputs): string {
+function whereTex(inputs: BlockInputs, lengthUnit: string): string {
   const space = inputs.space;
   const q = inputs.coordinate;
-  if (inputs.box) return `${q} \\in [${inputs.box[0]}, ${inputs.box[1]}]`;
+  if (inputs.box) return `${q} \\in [${formatNumber(inputs.box[0], 10)}, ${formatNumber(inputs.box[1], 10)}]${lengthUnit}`;
   if (space === 'axial') return '\\rho \\ge 0,\\ z \\in \\mathbb{R}';
   if (typeof space === 'object') {
     return Object.entries(space)
@@ -136,8 +141,11 @@ function renderResults(result: BlockResult): string {
     row("Temple's lower bound", formatNumber(result.bounds.lower)),
     row("Weinstein's interval", result.bounds.weinstein ? `[${formatNumber(result.bounds.weinstein[0])}, ${formatNumber(result.bounds.weinstein[1])}]` : '—'),
   ];
+  // Which level the reference stands for, when it is not the ground level (a declared or an odd trial's symmetry, a level index).
+  const level = result.reference && (result.reference.level.symmetry !== null || result.reference.level.index > 0) ? describeLevel(result.reference.level) : null;
   if (result.reference) {
-    rows.push(row(`reference (${result.reference.method})`, `${formatNumber(result.reference.energy)}${result.reference.excited !== null ? `; next level ${formatNumber(result.reference.excited)}` : ''}`));
+    const next = level && result.reference.level.symmetry ? `next ${result.reference.level.symmetry} level` : 'next level';
+    rows.push(row(`reference (${result.reference.method}${level ? `, ${level}` : ''})`, `${formatNumber(result.reference.energy)}${result.reference.excited !== null ? `; ${next} ${formatNumber(result.reference.excited)}` : ''}`));
     if (result.reference.published) rows.push(row('published', `${formatNumber(result.reference.published.energy)} — ${escapeHtml(result.reference.published.source)}`));
   }
   if (result.states.length > 1) {
@@ -147,10 +155,11 @@ function renderResults(result: BlockResult): string {
     });
   }
   if (result.basis) rows.push(row('overlap matrix', `${result.basis.functions} functions, ${result.basis.kept} kept; ${escapeHtml(result.basis.conditioning)}`));
-  if (result.errors.vsGrid !== null) rows.push(row('relative error against the grid', formatNumber(result.errors.vsGrid, 3)));
+  if (result.errors.vsGrid !== null) rows.push(row(`relative error against the grid${level ? ` (${level})` : ''}`, formatNumber(result.errors.vsGrid, 3)));
   if (result.errors.vsPublished !== null) rows.push(row('relative error against the published value', formatNumber(result.errors.vsPublished, 3)));
-  if (result.overlap !== null) rows.push(row('overlap with the grid ground state', formatNumber(result.overlap, 8)));
+  if (result.overlap !== null) rows.push(row(`overlap with the grid ${level ? `state of the ${level}` : 'ground state'}`, formatNumber(result.overlap, 8)));
   if (result.virial) rows.push(row(`virial ratio ${tex(`2\\langle T\\rangle / (${result.virial.exponent}\\langle V\\rangle)`)}`, formatNumber(result.virial.ratio, 8)));
+  else if (result.virialNote) rows.push(row('virial ratio', escapeHtml(result.virialNote)));
   if (result.claim?.energy !== null && result.claim) rows.push(row('claimed energy', `${formatNumber(result.claim.energy)} ± ${formatNumber(result.claim.tolerance, 3)}`));
   return `<table class="gw-results"><caption>Recomputed values (${escapeHtml(unit)}); model estimates, not a substitute for the group's validated procedures</caption><tbody>${rows.join('')}</tbody></table>`;
 }
@@ -181,8 +190,8 @@ function renderAudit(result: BlockResult, context: PanelContext): string {
   if (d) {
     items.push(`energy evaluations ${d.energyEvaluations}, trial evaluations ${d.trialEvaluations}, plot evaluations ${d.plotEvaluations}`);
     if (d.optimiser) items.push(`optimiser ${escapeHtml(d.optimiser.method)}: ${d.optimiser.iterations} iterations, ${d.optimiser.evaluations} evaluations, ${d.optimiser.starts} local search${d.optimiser.starts > 1 ? 'es' : ''}, converged ${d.optimiser.converged}`);
-    if (d.grid) items.push(`grid: ${d.grid.size} points, ${d.grid.elements} elements of order ${d.grid.elementOrder}, ${d.grid.refinements} refinements, domain [${formatNumber(d.grid.domain[0], 6)}, ${formatNumber(d.grid.domain[1], 6)}], last change ${d.grid.errorEstimate.map((e) => formatNumber(e, 2)).join(', ')}`);
-    if (d.energyError !== null) items.push(`quadrature error estimate of E ${formatNumber(d.energyError, 3)}`);
+    if (d.grid) items.push(`grid: ${d.grid.size} points, ${d.grid.elements} elements of order ${d.grid.elementOrder}, ${d.grid.refinements} refinements, domain [${formatNumber(d.grid.domain[0], 6)}, ${formatNumber(d.grid.domain[1], 6)}] ${escapeHtml(result.inputs?.lengthUnit ?? 'bohr')}, last change ${d.grid.errorEstimate.map((e) => formatNumber(e, 2)).join(', ')}`);
+    if (d.energyError !== null) items.push(`quadrature error estimate of E ${formatNumber(d.energyError, 3)} ${escapeHtml(result.energy?.unit ?? 'hartree')}`);
   }
   return `<details class="gw-audit"><summary>Audit trail</summary><ul>${items.map((i) => `<li>${i}</li>`).join('')}</ul></details>`;
 }

@@ -1,6 +1,7 @@
 import * as Plot from '@observablehq/plot';
 import type { EnergyScan } from '../engine/plot-data.ts';
 import type { BlockResult } from '../log/result-types.ts';
+import { describeLevel } from '../engine/parity.ts';
 import { densityPlot } from './density-plot.ts';
 import { fieldPlots } from './field-plots.ts';
 import { formatNumber } from './html.ts';
@@ -15,7 +16,7 @@ export function renderPlots(result: BlockResult, units: PlotUnits): string[] {
   const { density, field } = result.plots;
   if (density) {
     const q = density.coordinate;
-    const caption = `Thick grey: potential V(${q}). Shaded with line: trial density${q === 'r' ? (density.plane ? ' r|R|²' : ' r²|R|²') : ' |ψ|²'}; open circles: grid ground-state density at its nodes; both scaled and drawn from the level E. Dashed: reference ground energy.`;
+    const caption = `Thick grey: potential V(${q}). Shaded with line: trial density${q === 'r' ? (density.plane ? ' r|R|²' : ' r²|R|²') : ' |ψ|²'}; open circles: grid density of the ${targetLevel(result)} at its nodes; both scaled and drawn from the level E. Dashed: reference energy of that level.`;
     svgs.push(densityPlot(density, q, caption, result, units));
   }
   if (field) svgs.push(...fieldPlots(field, result, units));
@@ -41,11 +42,12 @@ function scanPlot(scan: EnergyScan, result: BlockResult, units: PlotUnits): stri
   }
   return draw(
     {
-      x: { label: `${scan.parameter}${unit ? ` (${unit})` : ' (atomic units)'}`, nice: true },
+      // In quantity mode a parameter without a unit is a pure number; in atomic mode it is in atomic units.
+      x: { label: `${scan.parameter}${unit ? ` (${unit})` : result.quantity ? '' : ' (atomic units)'}`, nice: true },
       y: { label: `E (${units.energy})`, nice: true, grid: true },
       marks,
     },
-    `Energy against ${scan.parameter} through the optimum; dashed line: reference ground energy`,
+    `Energy against ${scan.parameter} through the optimum; dashed line: reference energy of the ${targetLevel(result)}`,
   );
 }
 
@@ -70,3 +72,7 @@ function levelPlot(result: BlockResult, units: PlotUnits): string {
   );
 }
 
+/** The grid level a block is compared with, in words ("ground level", "lowest odd level"). */
+function targetLevel(result: BlockResult): string {
+  return result.reference ? describeLevel(result.reference.level) : 'ground level';
+}

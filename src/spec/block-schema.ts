@@ -81,6 +81,8 @@ export const blockSchema = z
     potential: expression,
     trial: expression.optional(),
     basis: z.array(expression).optional(),
+    symmetry: z.enum(['even', 'odd'], { errorMap: () => ({ message: 'must be even or odd' }) }).optional(),
+    level: z.number({ invalid_type_error: 'must be a whole number 0, 1, 2, ...' }).int('must be a whole number 0, 1, 2, ...').min(0, 'must be 0 or more').optional(),
     states: z.number({ invalid_type_error: 'must be a whole number' }).int('must be a whole number').positive('must be 1 or more').max(50, 'at most 50 levels').optional(),
     parameters: z.record(name, z.union([quantity, range])).optional(),
     reference: referenceFields.optional(),

@@ -2,7 +2,7 @@ import { isScalar, LineCounter, parseDocument, type Document } from 'yaml';
 import type { ZodIssue } from 'zod';
 import { blockSchema, knownFields, RESERVED_NAMES, type QuantityText, type RawBlock } from './block-schema.ts';
 import type { FencedBlock } from './find-blocks.ts';
-import { coordinatesOf, spaceLabel, type BlockEntry, type BlockSpec, type Claimed, type SpecProblem } from './types.ts';
+import { coordinatesOf, isLineSpace, spaceLabel, type BlockEntry, type BlockSpec, type Claimed, type SpecProblem } from './types.ts';
 import { didYouMean } from './nearest-name.ts';
 import { writtenPrecision } from './written-precision.ts';
 import { locateYamlError } from './yaml-errors.ts';
@@ -75,12 +75,14 @@ export function parseBlock(file: string, fenced: FencedBlock, index: number): Bl
 }
 
 /** The potential and the trial or basis, each with its line, and how many states a basis reports. */
-function expressions(raw: RawBlock, lineOf: (path: Path) => number): Pick<BlockSpec, 'potential' | 'trial' | 'basis' | 'states'> {
+function expressions(raw: RawBlock, lineOf: (path: Path) => number): Pick<BlockSpec, 'potential' | 'trial' | 'basis' | 'states' | 'level'> {
+  const declared = raw.symmetry !== undefined || raw.level !== undefined;
   return {
     potential: { text: raw.potential, line: lineOf(['potential']) },
     trial: raw.trial === undefined ? null : { text: raw.trial, line: lineOf(['trial']) },
     basis: raw.basis === undefined ? null : raw.basis.map((text, i) => ({ text, line: lineOf(['basis', i]) })),
     states: raw.states ?? 1,
+    ...(declared ? { level: { symmetry: raw.symmetry ?? null, index: raw.level ?? 0, line: lineOf([raw.symmetry !== undefined ? 'symmetry' : 'level']) } } : {}),
   };
 }
 
@@ -186,6 +188,11 @@ function meaningProblems(raw: RawBlock): Array<[(string | number)[], string]> {
   if (raw.basis !== undefined && raw.basis.length === 0) found.push([['basis'], 'the basis needs at least one function']);
   if (raw.states !== undefined && raw.basis === undefined) found.push([['states'], 'states goes with basis: a single trial gives one level']);
   const space = raw.space ?? 'line';
+  for (const field of ['symmetry', 'level'] as const) {
+    if (raw[field] !== undefined && raw.basis !== undefined) found.push([[field], `${field} goes with a single trial: a basis reports its lowest levels (states)`]);
+  }
+  if (raw.symmetry !== undefined && space !== 'line') found.push([['symmetry'], `symmetry (parity under x -> -x) applies to space line only, not ${spaceLabel(space)}`]);
+  if (raw.level !== undefined && !isLineSpace(space)) found.push([['level'], `level is not yet available on ${spaceLabel(space)}: a block there is compared with the ground level`]);
   if (raw.box !== undefined) {
     if (space !== 'line') found.push([['box'], `box applies to space line only, not ${spaceLabel(space)}${typeof space === 'object' ? ' (give each coordinate its range [a, b] in the map)' : ''}`]);
     else if (typeof raw.box[0] === 'number' && typeof raw.box[1] === 'number' && !(raw.box[0] < raw.box[1])) found.push([['box'], `box [${raw.box[0]}, ${raw.box[1]}] must have its left wall below its right wall`]);

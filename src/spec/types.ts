@@ -61,13 +61,34 @@ export interface Claimed {
  * A block written in quantity mode, converted to atomic units: how to state the engine's numbers in the block's
  * units (value in unit = atomic value * factor), and the physical constants the conversion rests on.
  */
+/** A unit to state values of one kind in: value in unit = atomic value * perAtomic; a null unit is a pure number. */
+export interface StatedUnit {
+  unit: string | null;
+  perAtomic: number;
+}
+
 export interface QuantityMode {
   energy: { unit: string; perHartree: number; definition: string };
   length: { unit: string; perBohr: number };
-  parameters: Record<string, { unit: string | null; perAtomic: number }>;
+  parameters: Record<string, StatedUnit>;
+  /** Declared constants: the unit each is stated in (as written, else coherent SI). */
+  constants: Record<string, StatedUnit>;
+  /** The unit the trial's norm integral is stated in. */
+  norm: StatedUnit;
   constantsUsed: Array<{ name: string; value: number; unit: string; source: string }>;
   /** Names in `constants` that are mathjs units or constants bound by the conversion, not declared by the author. */
   bound: string[];
+}
+
+/**
+ * The level a single trial approximates, as the block declares it: its parity under x -> -x (even
+ * potentials on the line) and its 0-based index among the levels of that parity (or among all levels).
+ */
+export interface DeclaredLevel {
+  symmetry: 'even' | 'odd' | null;
+  index: number;
+  /** Line of the symmetry field, or of level when symmetry is not given. */
+  line: number;
 }
 
 export interface BlockSpec {
@@ -92,6 +113,8 @@ export interface BlockSpec {
   /** The linear variational method: the functions whose span is searched, and how many levels to report. */
   basis: SourceText[] | null;
   states: number;
+  /** Given only when the block declares `symmetry` or `level` (so the input hash of other blocks stays as it was). */
+  level?: DeclaredLevel;
   varied: VariedParameter[];
   fixed: Record<string, number>;
   reference: {

@@ -1,7 +1,7 @@
 import * as mathjs from 'mathjs';
 import type { Unit } from 'mathjs';
 import { CONSTANT_SOURCE, scaleConstants, toAtomic } from './atomic-scale.ts';
-import { DIMENSIONLESS, fromMathjs, type Dimension } from './dimension.ts';
+import { DIMENSIONLESS, ENERGY, LENGTH, fromMathjs, type Dimension } from './dimension.ts';
 
 /**
  * The mathjs physical constants a record may name in quantity mode: those of the CODATA 2018
@@ -50,6 +50,16 @@ export interface PhysicalName {
   relies: string[];
 }
 
+/**
+ * The atomic units of length and energy, which mathjs does not name: a block may write `length: bohr`,
+ * `10 bohr` or `0.5 hartree`. (`rydberg` stays mathjs's Rydberg constant R_inf in expressions; as an
+ * energy unit, in `units.energy` or an energy field, it is the Rydberg energy, energy-units.ts.)
+ */
+const ATOMIC_UNITS: ReadonlyMap<string, Dimension> = new Map([
+  ['bohr', LENGTH],
+  ['hartree', ENERGY],
+]);
+
 type Resolution = { ok: true; name: PhysicalName } | { ok: false; message: string } | null;
 
 /** What a name means to mathjs in quantity mode: a constant, a unit, one we refuse (and why), or nothing. */
@@ -61,6 +71,8 @@ export function resolvePhysicalName(name: string): Resolution {
     if (!dimension.ok) return { ok: false, message: `${name} measures ${dimension.measures}, which has no place in a quantity-mode block` };
     return { ok: true, name: { kind: 'constant', name, dimension: dimension.dimension, atomic: toAtomic(constant.value, dimension.dimension), relies: [name, ...scaleConstants(dimension.dimension)] } };
   }
+  const atomicUnit = ATOMIC_UNITS.get(name);
+  if (atomicUnit !== undefined) return { ok: true, name: { kind: 'unit', name, dimension: atomicUnit, atomic: 1, relies: [] } };
   if (!mathjs.Unit.isValuelessUnit(name)) return null;
   const one = mathjs.unit(1, name);
   const component = one.units[0].unit;

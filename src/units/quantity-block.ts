@@ -1,9 +1,9 @@
-import { coordinatesOf, type BlockSpec, type Claimed, type SourceText, type Space, type SpecProblem } from '../spec/types.ts';
+import { coordinatesOf, type BlockSpec, type Claimed, type SourceText, type Space, type SpecProblem, type StatedUnit } from '../spec/types.ts';
 import { parse } from 'mathjs';
 import { dependsOn } from '../expr/differentiate.ts';
 import type { DimensionScope } from './check-dimensions.ts';
-import { ANY, ENERGY, LENGTH, MASS, describeDimension, isDimensionless, sameDimension, unify, type Dimension, type DimensionOrAny } from './dimension.ts';
-import { ENERGY_UNIT_NAMES, energyUnit, type EnergyUnit } from './energy-units.ts';
+import { ANY, DIMENSIONLESS, ENERGY, LENGTH, MASS, describeDimension, isDimensionless, multiply, power, sameDimension, unify, type Dimension, type DimensionOrAny } from './dimension.ts';
+import { ENERGY_UNIT_HELP, readEnergyUnit as sizeEnergyUnit, type EnergyUnit } from './energy-units.ts';
 import { FieldReader, type QuantitySource, type Reading } from './field-reader.ts';
 import { constantUse, resolvePhysicalName, type ConstantUse } from './physical-names.ts';
 import { analyseExpression } from './quantity-expression.ts';
@@ -29,6 +29,7 @@ export interface QuantityBlockSource {
   trial: SourceText | null;
   basis: SourceText[] | null;
   states: number;
+  level?: BlockSpec['level'];
   varied: Array<{ name: string; start: QuantitySource; min: QuantitySource; max: QuantitySource; line: number }>;
   fixed: Record<string, QuantitySource>;
   reference: { solve: boolean; energy: QuantitySource | null; tolerance: QuantitySource | null; source: string | null };
@@ -44,8 +45,13 @@ export interface QuantityBlockSource {
 export interface UnitsBack {
   energy: { unit: string; perHartree: number; definition: string };
   length: { unit: string; perBohr: number };
-  parameters: Record<string, { unit: string | null; perAtomic: number }>;
+  parameters: Record<string, StatedUnit>;
+  /** Declared constants, in the unit each was written in (else the coherent SI unit). */
+  constants: Record<string, StatedUnit>;
+  /** The norm integral: |trial|^2 times length (times length^2 on the half-line, r^2 dr). */
+  norm: StatedUnit;
 }
+
 
 export type QuantityConversion =
   | {
@@ -98,6 +104,7 @@ export function convertQuantityBlock(file: string, block: QuantityBlockSource): 
   const declared: Record<string, number> = {};
   const fixed: Record<string, number> = {};
   const parameterUnits: UnitsBack['parameters'] = {};
+  const constantUnits: UnitsBack['constants'] = {};
   for (const [group, entries, into] of [['constants', block.constants, declared], ['parameters', block.fixed, fixed]] as const) {
     for (const [name, source] of Object.entries(entries)) {
       const q = reader.quantity(`${group}.${name}`, source, null, null);
@@ -105,7 +112,7 @@ export function convertQuantityBlock(file: string, block: QuantityBlockSource): 
       scope.constants[name] = q ? { dimension: q.dimension, atomic: q.atomic } : { dimension: ANY, atomic: Number.NaN };
       if (!q) continue;
       into[name] = q.atomic;
-      if (group === 'parameters') parameterUnits[name] = displayUnit(q.dimension, [q]);
+      (group === 'parameters' ? parameterUnits : constantUnits)[name] = displayUnit(q.dimension, [q]);
     }
   }
   const varied: BlockSpec['varied'] = [];
@@ -136,7 +143,7 @@ export function convertQuantityBlock(file: string, block: QuantityBlockSource): 
     else if (left && right) reader.complain('box', block.box[0].line, `box [${block.box[0].text}, ${block.box[1].text}] must have its left wall below its right wall`);
   }
 
-  const bound = checkExpressions(reader, block, scope, massProfile !== null);
+  const { bound, trialDimension } = checkExpressions(reader, block, scope, massProfile !== null);
   if (massProfile) {
     const profileBound = checkMassProfile(reader, massProfile, scope, block.varied.map((p) => p.name));
     if (profileBound) {
@@ -178,6 +185,8 @@ export function convertQuantityBlock(file: string, block: QuantityBlockSource): 
     energy: { unit: reportEnergy.name, perHartree: 1 / reportEnergy.hartrees, definition: reportEnergy.definition },
     length: { unit: lengthUnit.text, perBohr: 1 / lengthUnit.atomic },
     parameters: parameterUnits,
+    constants: constantUnits,
+    norm: normUnit(power(trialDimension, 2), block.space === 'radial' ? 3 : 1, lengthUnit),
   };
   const constantsUsed = [...reader.relied].map(constantUse);
   return {
@@ -197,6 +206,7 @@ export function convertQuantityBlock(file: string, block: QuantityBlockSource): 
       trial: block.trial,
       basis: block.basis,
       states: block.states,
+      ...(block.level ? { level: block.level } : {}),
       varied,
       fixed,
       reference,
@@ -211,8 +221,9 @@ export function convertQuantityBlock(file: string, block: QuantityBlockSource): 
 }
 
 /** Checks the potential (an energy) and the trial or basis once, before any numerics; returns the mathjs names they use. */
-function checkExpressions(reader: FieldReader, block: QuantityBlockSource, scope: DimensionScope, massVaries: boolean): Record<string, number> {
+function checkExpressions(reader: FieldReader, block: QuantityBlockSource, scope: DimensionScope, massVaries: boolean): { bound: Record<string, number>; trialDimension: DimensionOrAny } {
   const bound: Record<string, number> = {};
+  let trialDimension: DimensionOrAny = DIMENSIONLESS;
   const fields: Array<[string, SourceText]> = [['potential', block.potential]];
   if (block.trial) fields.push(['trial', block.trial]);
   (block.basis ?? []).forEach((source, i) => fields.push([`basis[${i}]`, source]));
@@ -224,14 +235,18 @@ function checkExpressions(reader: FieldReader, block: QuantityBlockSource, scope
       continue;
     }
     if (field === 'potential' && analysed.dimension !== ANY && !sameDimension(analysed.dimension, ENERGY)) {
-      // A common slip: e is Euler's number here, as in atomic units.
-      const hint = dependsOn(analysed.tree, 'e') ? " (e is Euler's number; the elementary charge is elementaryCharge)" : '';
+      // Common slips: e is Euler's number here, as in atomic units; rydberg in an expression is mathjs's R_inf.
+      const hint = [
+        dependsOn(analysed.tree, 'e') ? "e is Euler's number; the elementary charge is elementaryCharge" : null,
+        dependsOn(analysed.tree, 'rydberg') ? 'rydberg in an expression is the Rydberg constant R_inf, a wavenumber; the Rydberg energy is 0.5 hartree' : null,
+      ].filter((h) => h !== null).map((h) => ` (${h})`).join('');
       reader.complain(field, source.line, `the potential must be an energy, but ${analysed.tree.toString()} is ${describeDimension(analysed.dimension)}${hint}`);
     }
+    if (field === 'trial') trialDimension = analysed.dimension;
     reader.rely(analysed.physical.values());
     for (const [name, p] of analysed.physical) bound[name] = p.atomic;
   }
-  return bound;
+  return { bound, trialDimension };
 }
 
 /** Whether the mass as written names the coordinate (a position-dependent mass); unreadable text is left to the quantity reader. */
@@ -282,16 +297,26 @@ function readLengthUnit(reader: FieldReader, source: QuantitySource | undefined,
 
 function readEnergyUnit(reader: FieldReader, field: string, source: QuantitySource | undefined, line: number): EnergyUnit | null {
   if (!source) {
-    reader.complain(field, line, `quantity mode needs an energy unit, one of ${ENERGY_UNIT_NAMES.join(', ')}`);
+    reader.complain(field, line, `quantity mode needs an energy unit: ${ENERGY_UNIT_HELP}`);
     return null;
   }
-  const unit = energyUnit(source.text.trim());
-  if (!unit) reader.complain(field, source.line, `${source.text} is not an energy unit quantity mode works in; use one of ${ENERGY_UNIT_NAMES.join(', ')}`);
-  return unit;
+  const reading = sizeEnergyUnit(source.text.trim());
+  if (reading.ok) return reading.unit;
+  reader.complain(field, source.line, reading.message);
+  return null;
+}
+
+/** The norm integral's unit: a power of the block's length unit when it is one (a dimensionless trial), else SI. */
+function normUnit(trialSquared: DimensionOrAny, lengthPower: number, length: WrittenUnit): StatedUnit {
+  const dimension = multiply(trialSquared, power(LENGTH, lengthPower));
+  if (isDimensionless(dimension)) return { unit: null, perAtomic: 1 };
+  const d = dimension as Dimension;
+  if (!d.every((exponent, i) => i === 1 || exponent === 0)) return displayUnit(d, []);
+  return { unit: d[1] === 1 ? length.text : `${length.text}^${d[1]}`, perAtomic: length.atomic ** -d[1] };
 }
 
 /** The unit a parameter is reported in: the first one written with its values, else the coherent SI unit. */
-function displayUnit(dimension: DimensionOrAny, readings: Array<Reading | null>): { unit: string | null; perAtomic: number } {
+function displayUnit(dimension: DimensionOrAny, readings: Array<Reading | null>): StatedUnit {
   if (isDimensionless(dimension)) return { unit: null, perAtomic: 1 };
   const unit = readings.find((r) => r?.unit)?.unit ?? siUnit(dimension as Dimension);
   return { unit: unit.text, perAtomic: 1 / unit.atomic };

@@ -106,6 +106,10 @@ describe('spec of the spaces with several coordinates', () => {
     expect(parse(`id: ml\nmass: { x: 1 }\npotential: x^2\ntrial: exp(-x^2)`).problems[0].message).toMatch(/product space/);
   });
 
+  it('refuses a level target on axial, where the block is compared with the ground level', () => {
+    expect(parse(`id: lv\nspace: axial\nlevel: 1\npotential: rho^2 + z^2\ntrial: z*exp(-rho^2 - z^2)`).problems[0]).toMatchObject({ field: 'level' });
+  });
+
   it('reads an interval coordinate and a wrong-way interval is refused', () => {
     const { spec } = parse(`id: box2\nspace: { x: [0, 2], y: line }\npotential: y^2\ntrial: x*(2 - x)*exp(-y^2)`);
     expect(spec!.space).toEqual({ x: [0, 2], y: 'line' });

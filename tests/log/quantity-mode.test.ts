@@ -65,3 +65,56 @@ describe('quantity mode end to end', () => {
     expect(result.problems[0].message).toMatch(/quantity mode/);
   });
 });
+
+describe('a block in bohr and hartree is the same block as in atomic units', () => {
+  // Same Hamiltonian, trial and range: V = x^2/2 with exp(-a x^2); the exact optimum is a = 1/2, E = 1/2 (any QM textbook).
+  const atomic = run('id: au\npotential: x^2/2\ntrial: exp(-a*x^2)\nparameters:\n  a: { start: 0.3, min: 0.01, max: 5 }');
+  const quantity = run(
+    'id: qm\nunits: { length: bohr, energy: hartree }\npotential: 0.5 hartree * (x / (1 bohr))^2\ntrial: exp(-a*x^2)\nparameters:\n  a: { start: 0.3 bohr^-2, min: 0.01 bohr^-2, max: 5 bohr^-2 }',
+  );
+
+  it('gives the same numbers, stated in hartree and bohr', () => {
+    expect(quantity.status).toBe(atomic.status);
+    expect(quantity.energy!.unit).toBe('hartree');
+    expect(quantity.energy!.value).toBeCloseTo(0.5, 12);
+    const same = (a: number | null | undefined, b: number | null | undefined) => expect(Math.abs(a! - b!)).toBeLessThanOrEqual(1e-12 * Math.max(1, Math.abs(b!)));
+    same(quantity.energy!.value, atomic.energy!.value);
+    same(quantity.parameters.a.value, atomic.parameters.a.value);
+    same(quantity.reference!.energy, atomic.reference!.energy);
+    same(quantity.reference!.excited, atomic.reference!.excited);
+    same(quantity.bounds.lower, atomic.bounds.lower);
+    same(quantity.diagnostics!.grid!.domain[1], atomic.diagnostics!.grid!.domain[1]);
+    expect(quantity.parameters.a.unit).toBe('bohr^-2');
+  });
+});
+
+describe('claims in spectroscopic units', () => {
+  // hbar omega / 2 with omega = 2 pi x 1 THz is h x 0.5 THz: 500000 MHz exactly, 0.5e12 / c = 16.6782048 cm^-1 and
+  // h 0.5e12 / k_B = 23.9962154 K (h, c and k_B exact in the 2019 SI; NIST CODATA 2018).
+  it.each([
+    ['16.678 cm^-1', 'confirmed'],
+    ['16.70 cm^-1', 'disputed'],
+    ['23.996 K', 'confirmed'],
+    ['23996.2 mK', 'confirmed'],
+    ['24.05 K', 'disputed'],
+    ['500000 MHz', 'confirmed'],
+    ['500 GHz', 'confirmed'],
+  ])('claim.energy %s is %s', (claim, status) => {
+    const result = run(oscillator(`claim:\n  energy: ${claim}`));
+    expect(result.status, result.checks.map((c) => c.detail).join('; ')).toBe(status);
+  });
+
+  it('report.energy-unit GHz states E = h f: 500 GHz', () => {
+    const result = run(oscillator('report: { energy-unit: GHz }'));
+    expect(result.energy!.unit).toBe('GHz');
+    expect(result.energy!.value).toBeCloseTo(500, 6);
+  });
+
+  it('a refused energy unit is invalid, naming the field and its line', () => {
+    const result = run('id: bad-unit\nunits: { length: nm, energy: furlong }\npotential: 0 meV\ntrial: exp(-a x^2)\nparameters:\n  a: { start: 0.05 nm^-2, min: 0.001 nm^-2, max: 1 nm^-2 }');
+    expect(result.status).toBe('invalid');
+    // Six lines of front matter, a blank line, the fence and the id: units is line 10 of the file.
+    expect(result.problems.map((p) => [p.field, p.line])).toEqual([['units.energy', 10]]);
+    expect(result.problems[0].message).toMatch(/^furlong is not a unit/);
+  });
+});

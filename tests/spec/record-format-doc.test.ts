@@ -5,7 +5,7 @@ import { STATUS_ORDER } from '../../src/engine/status.ts';
 import { DEFAULTS } from '../../src/log/log-config.ts';
 import { knownFields } from '../../src/spec/block-schema.ts';
 import { parseRecord } from '../../src/spec/parse-record.ts';
-import { ENERGY_UNIT_NAMES } from '../../src/units/energy-units.ts';
+import { ENERGY_UNIT_EXAMPLES } from '../../src/units/energy-units.ts';
 
 // docs/record-format.md is the project's own reference for the record format: its examples must be records the
 // parser accepts, and it must name every field, status, energy unit and config setting the code knows.
@@ -30,7 +30,7 @@ describe('docs/record-format.md', () => {
   });
 
   it('names every energy unit and every config setting', () => {
-    for (const unit of ENERGY_UNIT_NAMES) expect(DOC).toContain(`\`${unit}\``);
+    for (const unit of ENERGY_UNIT_EXAMPLES) expect(DOC).toContain(`\`${unit}\``);
     for (const key of Object.keys(DEFAULTS)) expect(DOC).toContain(`\`${key}\``);
   });
 });

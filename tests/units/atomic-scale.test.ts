@@ -2,7 +2,7 @@ import * as mathjs from 'mathjs';
 import { describe, expect, it } from 'vitest';
 import { BOHR_METRES, CONSTANT_SOURCE, HARTREE_JOULES, toAtomic } from '../../src/units/atomic-scale.ts';
 import { ENERGY, LENGTH, MASS } from '../../src/units/dimension.ts';
-import { ENERGY_UNIT_NAMES, energyUnit } from '../../src/units/energy-units.ts';
+import { ENERGY_UNIT_EXAMPLES, energyUnit } from '../../src/units/energy-units.ts';
 import { constantUse, resolvePhysicalName } from '../../src/units/physical-names.ts';
 
 const relative = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
@@ -100,10 +100,14 @@ describe('energy units for reporting', () => {
     expect(relative(energyUnit('rydberg')!.hartrees / eV.hartrees, 13.605693122994)).toBeLessThan(1e-11);
   });
 
-  it('names the constants each unit rests on and knows only its seven names', () => {
-    expect(ENERGY_UNIT_NAMES).toEqual(['meV', 'eV', 'hartree', 'rydberg', 'cm^-1', 'K', 'THz']);
+  it('names the constants each unit rests on, and refuses what is not an energy, frequency, temperature or wavenumber', () => {
+    for (const name of ENERGY_UNIT_EXAMPLES) expect(energyUnit(name), name).not.toBeNull();
     expect(energyUnit('cm^-1')!.constants).toEqual(expect.arrayContaining(['planckConstant', 'speedOfLight']));
     expect(energyUnit('K')!.constants).toContain('boltzmann');
+    expect(energyUnit('MHz')!.constants).toContain('planckConstant');
     expect(energyUnit('kcal')).toBeNull();
+    expect(energyUnit('nm')).toBeNull();
+    expect(energyUnit('electronMass')).toBeNull();
+    expect(energyUnit('meV + 1')).toBeNull();
   });
 });

@@ -239,6 +239,12 @@ describe('blocks whose dimensions disagree are refused, naming the term and the 
     expect(problem.message).toContain('the elementary charge is elementaryCharge');
   });
 
+  it('rydberg in the potential gets a hint: in an expression it is the constant R_inf, not the energy', () => {
+    const [problem] = problemsOf(oscillator({ potential: at('-1 rydberg * (x / (1 nm))^2', 17) }));
+    expect(problem.field).toBe('potential');
+    expect(problem.message).toMatch(/must be an energy.*the Rydberg energy is 0\.5 hartree/);
+  });
+
   it('reports every problem of a block at once, each in its own field', () => {
     const problems = problemsOf(
       donor({
@@ -248,7 +254,9 @@ describe('blocks whose dimensions disagree are refused, naming the term and the 
       }),
     );
     expect(problems.map((p) => p.field).sort()).toEqual(['parameters.a', 'potential', 'units.energy', 'units.length', 'units.time']);
-    expect(problems.find((p) => p.field === 'units.energy')!.message).toContain('meV, eV, hartree, rydberg, cm^-1, K, THz');
+    const energy = problems.find((p) => p.field === 'units.energy')!;
+    expect(energy.line).toBe(12);
+    expect(energy.message).toMatch(/^kcal is not a unit quantity mode knows; write an energy unit .*cm\^-1/);
   });
 
   it('a start outside its range and a non-positive mass', () => {

@@ -1,7 +1,7 @@
 // The integrands of <psi|psi>, <T>, <V> and ||(H - E) psi||^2 in the axial and Cartesian product
 // spaces, built from plain closures of a point, so that the space modules only compile and place.
 import { VARIANCE_FLOOR } from '../variance.ts';
-import type { CubatureAxis, CubatureOptions, CubatureResult, ProductIntegrand } from './integrate-product.ts';
+import type { CubatureResult, ProductIntegrand } from './integrate-product.ts';
 
 export type PointFunction = (point: Float64Array) => number;
 
@@ -107,18 +107,6 @@ export function cartesianVarianceIntegrand(trial: CartesianClosures & { laplacia
   };
 }
 
-/**
- * The axes of an axial space in point order (rho, z) and the order to integrate them in: z outermost,
- * split at the nuclei and at the trial's centre, rho inside, whose end rho = 0 is the axis the
- * nuclei sit on, so a Coulomb singularity is always at a corner of the panels.
- */
-export function axialAxes(nuclei: number[], centerZ: number, scale: number): { axes: CubatureAxis[]; order: number[] } {
-  const axes: CubatureAxis[] = [];
-  axes[RHO] = { lo: 0, hi: Infinity, breakpoints: [], center: 0, scale };
-  axes[Z] = { lo: -Infinity, hi: Infinity, breakpoints: nuclei, center: centerZ, scale };
-  return { axes, order: [Z, RHO] };
-}
-
 /** Energy and its parts from the three integrals of an energy integrand, the error propagated from their estimates. */
 export interface ProductEnergy {
   norm: number;
@@ -137,7 +125,7 @@ export function energyFromIntegrals(result: Pick<CubatureResult, 'values' | 'err
   return { norm, kinetic, potential, energy, errorEstimate: (et + ev + Math.abs(energy) * en) / Math.abs(norm) };
 }
 
-/** Options of a variance run: a variance at rounding level (a nearly exact trial) is resolved only to that level, as in one dimension. */
-export function varianceOptions(at: ProductEnergy, options: CubatureOptions = {}): CubatureOptions {
-  return { ...options, absTol: VARIANCE_FLOOR * Math.max(at.energy * at.energy, 1e-300) * at.norm };
+/** Absolute tolerance of a variance run: a variance at rounding level (a nearly exact trial) is resolved only to that level, as in one dimension. */
+export function varianceAbsTol(at: ProductEnergy): number {
+  return VARIANCE_FLOOR * Math.max(at.energy * at.energy, 1e-300) * at.norm;
 }

@@ -32,15 +32,23 @@ export interface CubatureOptions {
 }
 
 /**
- * The panels a run settled on: the outermost run's, and the second coordinate's at each outermost
- * node (sorted by that node), so that a run at nearby parameters evaluates the leaves at once
- * instead of passing through the coarser panels an adaptive run from whole segments needs.
+ * The panels one run settled on and, at each of its nodes (sorted), those the run of the next
+ * coordinate inside settled on; empty at the innermost coordinate.
+ */
+export interface NestedPartition {
+  panels: Partition;
+  nodes: Float64Array;
+  inner: NestedPartition[];
+}
+
+/**
+ * The panels a run settled on at every level, so that a run at nearby parameters evaluates the
+ * leaves at once instead of passing through the coarser panels an adaptive run from whole segments
+ * needs; each inner run starts from the panels of the previous run's nearest node.
  */
 export interface CubaturePartition {
-  outer: Partition;
-  nodes: Float64Array;
-  inner: Partition[];
-  /** Panels of the second coordinate summed over the nodes at the run that started from whole segments. */
+  tree: NestedPartition;
+  /** Panels of the inner runs, summed, at the run that started from whole segments. */
   placedPanels: number;
 }
 
@@ -63,7 +71,8 @@ export const CUBATURE_DEFAULTS = { relTol: 1e-10, absTol: 0, maxIntervals: 2000 
 /** A run that needed more than this many times the inner panels of the run it was started from starts the next one afresh (as in the 1-D search). */
 const CARRY_LIMIT = 4;
 
-const STATUS_RANK: Record<IntegrationStatus, number> = { converged: 0, roundoff: 1, 'interval-limit': 2, 'non-finite': 3 };
+/** How bad a failure is, to report the worst one met among many runs. */
+export const STATUS_RANK: Record<IntegrationStatus, number> = { converged: 0, roundoff: 1, 'interval-limit': 2, 'non-finite': 3 };
 
 /**
  * Iterated adaptive Gauss–Kronrod integration over a product region (QUADPACK's globally adaptive QAG/QAGI
@@ -71,7 +80,10 @@ const STATUS_RANK: Record<IntegrationStatus, number> = { converged: 0, roundoff:
  * as in Davis & Rabinowitz, Methods of Numerical Integration, 1984, §5.6). Each inner integral is
  * itself adaptive, so a point singularity on a split line (a nucleus at z = z0 on the axis rho = 0) is
  * refined only where it is; every inner run's error estimate is integrated along by the outer run and
- * added to the outer estimate, and each of the D levels gets 1/D of the tolerance.
+ * added to the outer estimate. Each of the D levels gets 1/(D+1) of the tolerance and the far tails,
+ * where inner runs meet an absolute tolerance, the last share; the estimate is the sum actually met.
+ * Singularities inside the region, off the split lines, are not this routine's to place: the axial
+ * half-plane goes through integrateAxial, which puts each nucleus at the origin of polar coordinates.
  */
 export function integrateProduct(integrand: ProductIntegrand, components: number, axes: CubatureAxis[], options: CubatureOptions = {}): CubatureResult {
   const dims = axes.length;
@@ -143,8 +155,10 @@ function nest(setting: Setting, tailShare: number): { outcome: CubatureResult; c
 
   // Levels from the innermost out: the innermost hands out the integrand's components; every other
   // level hands out its inner run's values followed by that run's total error estimates.
-  const nodes: number[] = [];
-  const partitions: Partition[] = [];
+  // Per level, the nodes met and the partitions of the runs inside them, and where to start those runs from.
+  const collected = levels.map(() => ({ nodes: [] as number[], trees: [] as NestedPartition[] }));
+  const context: (NestedPartition | undefined)[] = levels.map(() => undefined);
+  context[0] = start?.tree;
   let innerPanels = 0;
   const innermostAxis = levels[dims - 1].axis;
   const innermost: VectorIntegrand = (x, out) => {
@@ -170,17 +184,20 @@ function nest(setting: Setting, tailShare: number): { outcome: CubatureResult; c
     const peaks = new Float64Array(components);
     inner = (x, out) => {
       point[levelAxis] = x;
-      if (level === 0 && start) runOptions.start = start.inner[nearest(start.nodes, x)];
+      const from = context[level];
+      const child = from && from.nodes.length > 0 ? from.inner[nearest(from.nodes, x)] : undefined;
+      runOptions.start = child?.panels;
+      context[runLevel] = child;
+      collected[runLevel].nodes.length = 0;
+      collected[runLevel].trees.length = 0;
       let smallest = Infinity;
       for (let k = 0; k < components; k++) if (peaks[k] > 0) smallest = Math.min(smallest, peaks[k]);
       runOptions.absTol = smallest < Infinity ? Math.max(baseAbsTol, tailShare * relTol * smallest) : baseAbsTol;
       const result = integrateVector(run, runComponents, runOptions);
       for (let k = 0; k < components; k++) peaks[k] = Math.max(peaks[k], result.absValues[k]);
-      if (level === 0) {
-        nodes.push(x);
-        partitions.push(result.partition);
-        innerPanels += result.partition.panels.length / 3;
-      }
+      collected[level].nodes.push(x);
+      collected[level].trees.push(sortedTree(result.partition, collected[runLevel]));
+      innerPanels += result.partition.panels.length / 3;
       if (result.status !== 'converged') note(result, runLevel);
       totalErrors(result, components, out);
     };
@@ -188,7 +205,7 @@ function nest(setting: Setting, tailShare: number): { outcome: CubatureResult; c
   }
 
   const outer = integrateVector(inner, innerComponents, {
-    breakpoints: levels[0].splits, scale: levels[0].scale, relTol, absTol, maxIntervals, tested: components, start: start?.outer,
+    breakpoints: levels[0].splits, scale: levels[0].scale, relTol, absTol, maxIntervals, tested: components, start: start?.tree.panels,
   });
   if (outer.status !== 'converged') note(outer, 0);
   const values = outer.values.slice(0, components);
@@ -197,7 +214,7 @@ function nest(setting: Setting, tailShare: number): { outcome: CubatureResult; c
   const placedPanels = start ? start.placedPanels : innerPanels;
   const { status, message } = failure;
   const carried = status !== 'non-finite' && innerPanels <= CARRY_LIMIT * placedPanels;
-  const partition = carried ? sortedPartition(outer.partition, nodes, partitions, placedPanels) : null;
+  const partition = carried ? { tree: sortedTree(outer.partition, collected[0]), placedPanels } : null;
   const converged = status === 'converged';
   return { outcome: { values, errorEstimates, evaluations, converged, status, message, partition }, converged, errorEstimates, absValues: outer.absValues };
 }
@@ -216,9 +233,9 @@ function effectiveWidth(axis: CubatureAxis): number {
   return reach + 40 * ((finiteLo ? 0 : 1) + (finiteHi ? 0 : 1)) * axis.scale;
 }
 
-function sortedPartition(outer: Partition, nodes: number[], partitions: Partition[], placedPanels: number): CubaturePartition {
+function sortedTree(panels: Partition, { nodes, trees }: { nodes: number[]; trees: NestedPartition[] }): NestedPartition {
   const order = Array.from(nodes.keys()).sort((i, j) => nodes[i] - nodes[j]);
-  return { outer, nodes: Float64Array.from(order, (i) => nodes[i]), inner: order.map((i) => partitions[i]), placedPanels };
+  return { panels, nodes: Float64Array.from(order, (i) => nodes[i]), inner: order.map((i) => trees[i]) };
 }
 
 /** Index of the entry of the sorted, non-empty `xs` nearest to x, by bisection. */

@@ -11,8 +11,8 @@ export interface AxisMesh {
   mass: number;
   /** Element edges, ascending; the first and last are the ends of the domain. */
   boundaries: number[];
-  /** Gauss–Lobatto points per element (polynomial degree + 1). */
-  order: number;
+  /** Gauss–Lobatto points of each element (polynomial degree + 1); elements may differ (an hp mesh). */
+  orders: number[];
   /** Magnetic quantum number m, only on a 'rho' axis. */
   angularMomentum: number;
 }
@@ -36,7 +36,18 @@ export interface AxisDvr {
 
 function elementRule(mesh: AxisMesh, element: number): ElementRule {
   const onAxis = mesh.kind === 'rho' && element === 0 && mesh.angularMomentum === 0;
-  return onAxis ? axisRadauElement(mesh.order) : lobattoElement(mesh.order);
+  return onAxis ? axisRadauElement(mesh.orders[element]) : lobattoElement(mesh.orders[element]);
+}
+
+/** Global index of the first raw node of every element (elements share their edge nodes), and the raw node count. */
+function elementOffsets(orders: number[]): { offsets: number[]; total: number } {
+  const offsets: number[] = [];
+  let next = 0;
+  for (const order of orders) {
+    offsets.push(next);
+    next += order - 1;
+  }
+  return { offsets, total: next + 1 };
 }
 
 /**
@@ -54,37 +65,38 @@ function physicalWeight(mesh: AxisMesh, rule: ElementRule, half: number, rho: nu
  * rho still integrates the stiffness exactly), while for m = 0 the first element is the axis Radau element.
  */
 export function buildAxis(mesh: AxisMesh): AxisDvr {
-  const { boundaries, order } = mesh;
+  const { boundaries, orders } = mesh;
   const elements = boundaries.length - 1;
-  const step = order - 1;
-  const total = elements * step + 1;
+  const { offsets, total } = elementOffsets(orders);
   const keepsFirst = mesh.kind === 'rho' && mesh.angularMomentum === 0;
   const first = keepsFirst ? 0 : 1;
   const size = total - 1 - first;
   const rawNodes = new Float64Array(total);
   const rawWeights = new Float64Array(total);
-  const bandwidth = step;
+  const bandwidth = Math.max(...orders) - 1;
   const width = 2 * bandwidth + 1;
   const band = new Float64Array(size * width);
   const kineticFactor = 1 / (2 * mesh.mass);
-  const local = new Float64Array(order);
+  const local = new Float64Array(bandwidth + 1);
   for (let e = 0; e < elements; e++) {
+    const order = orders[e];
+    const base = offsets[e];
     const rule = elementRule(mesh, e);
     const half = 0.5 * (boundaries[e + 1] - boundaries[e]);
     const start = boundaries[e];
     for (let k = 0; k < order; k++) {
       const x = start + half * (1 + rule.nodes[k]);
-      rawNodes[e * step + k] = k === order - 1 ? boundaries[e + 1] : x;
+      rawNodes[base + k] = k === order - 1 ? boundaries[e + 1] : x;
       local[k] = physicalWeight(mesh, rule, half, x, k);
-      rawWeights[e * step + k] += local[k];
+      rawWeights[base + k] += local[k];
     }
     // Stiffness int W (d chi_i)(d chi_j) by the element quadrature, exact for polynomials of the element degree.
     const scale = kineticFactor / (half * half);
     for (let i = 0; i < order; i++) {
-      const row = e * step + i - first;
+      const row = base + i - first;
       if (row < 0 || row >= size) continue;
       for (let j = 0; j < order; j++) {
-        const column = e * step + j - first;
+        const column = base + j - first;
         if (column < 0 || column >= size) continue;
         let s = 0;
         for (let k = 0; k < order; k++) s += local[k] * rule.derivative[k * order + i] * rule.derivative[k * order + j];
@@ -125,11 +137,11 @@ export function denseAxisOperator(axis: AxisDvr): Float64Array {
  * polynomials of `from`; outside from's domain the value is 0 (beyond a truncated end psi is taken as vanished).
  */
 export function interpolationMatrix(from: AxisDvr, to: AxisDvr): Float64Array {
-  const { boundaries, order } = from.mesh;
-  const step = order - 1;
+  const { boundaries, orders } = from.mesh;
+  const { offsets } = elementOffsets(orders);
   const first = from.keepsFirst ? 0 : 1;
   const matrix = new Float64Array(to.size * from.size);
-  const values = new Float64Array(order);
+  const values = new Float64Array(Math.max(...orders));
   let e = 0;
   for (let i = 0; i < to.size; i++) {
     const x = to.nodes[i];
@@ -139,8 +151,8 @@ export function interpolationMatrix(from: AxisDvr, to: AxisDvr): Float64Array {
     const rule = elementRule(from.mesh, e);
     const half = 0.5 * (boundaries[e + 1] - boundaries[e]);
     lagrangeValues(rule.nodes, rule.barycentric, (x - boundaries[e]) / half - 1, values);
-    for (let k = 0; k < order; k++) {
-      const column = e * step + k - first;
+    for (let k = 0; k < orders[e]; k++) {
+      const column = offsets[e] + k - first;
       if (column >= 0 && column < from.size) matrix[i * from.size + column] += values[k];
     }
   }

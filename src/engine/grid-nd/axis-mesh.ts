@@ -38,19 +38,38 @@ function near(a: number, b: number, scale: number): boolean {
   return Math.abs(a - b) <= 1e-12 * scale;
 }
 
+export interface AxisElements {
+  /** Element edges, ascending. */
+  edges: number[];
+  /** Gauss–Lobatto points of each element. */
+  orders: number[];
+}
+
+/** Lowest element order anywhere: below it the bridge functions alone leave too little to resolve. */
+const minOrder = 4;
+
 /**
- * Edges for element size h in the core and `layers` geometric layers at each singular point: the hp-FEM mesh whose
- * error falls exponentially in the number of unknowns at point singularities (Babuška & Guo 1988; Schwab, p- and
+ * Edges for element size h in the core and `layers` geometric layers at each singular point, with the polynomial
+ * order rising linearly away from the singular point and falling along the open tails: the hp-FEM mesh whose error
+ * falls exponentially in the number of unknowns at point singularities (Babuška & Guo 1988; Schwab, p- and
  * hp-Finite Element Methods, Oxford 1998, ch. 4).
  */
-export function axisBoundaries(layout: AxisLayout, h: number, layers: number): number[] {
+export function axisElements(layout: AxisLayout, h: number, layers: number, order: number): AxisElements {
   const lo = layout.lo ?? layout.coreLo;
   const hi = layout.hi ?? layout.coreHi;
   const scale = Math.max(1, Math.abs(lo), Math.abs(hi));
   const cuts = [...new Set([lo, ...layout.breakpoints.filter((b) => b > lo && b < hi), hi])].sort((a, b) => a - b);
+  // edges[i] with orders[i], the order of the element that starts at edges[i].
   const edges: number[] = [];
+  const orders: number[] = [];
+  const push = (x: number, p: number) => {
+    edges.push(x);
+    orders.push(Math.max(minOrder, p));
+  };
+  // The j-th graded layer counted from the singular point (j = 0 the smallest) gets order - (layers - j).
+  const layerOrder = (j: number) => order - (layers - j);
   if (layout.lo === null) {
-    for (let k = layout.tailLo; k >= 1; k--) edges.push(lo - tailLength(h, k));
+    for (let k = layout.tailLo; k >= 1; k--) push(lo - tailLength(h, k), order - k);
   }
   for (let s = 0; s + 1 < cuts.length; s++) {
     const [a, b] = [cuts[s], cuts[s + 1]];
@@ -64,20 +83,34 @@ export function axisBoundaries(layout: AxisLayout, h: number, layers: number): n
     const start = gradedA ? a + r0 : a;
     const end = gradedB ? b - r0 : b;
     const count = end - start > 1e-12 * scale ? Math.ceil((end - start) / h - 1e-9) : 0;
-    edges.push(a);
     if (gradedA) {
-      for (let j = layers; j >= 1; j--) edges.push(a + r0 * GRADING_RATIO ** j);
-      edges.push(start);
+      push(a, layerOrder(0));
+      for (let j = layers; j >= 1; j--) push(a + r0 * GRADING_RATIO ** j, layerOrder(layers - j + 1));
     }
-    for (let e = 1; e < count; e++) edges.push(start + ((end - start) * e) / count);
+    for (let e = 0; e < count; e++) push(start + ((end - start) * e) / count, order);
     if (gradedB) {
-      edges.push(end);
-      for (let j = 1; j <= layers; j++) edges.push(b - r0 * GRADING_RATIO ** j);
+      push(end, layerOrder(layers));
+      for (let j = 1; j <= layers; j++) push(b - r0 * GRADING_RATIO ** j, layerOrder(layers - j));
     }
   }
-  edges.push(hi);
   if (layout.hi === null) {
-    for (let k = 1; k <= layout.tailHi; k++) edges.push(hi + tailLength(h, k));
+    push(hi, order - 1);
+    for (let k = 1; k < layout.tailHi; k++) push(hi + tailLength(h, k), order - k - 1);
+    edges.push(hi + tailLength(h, layout.tailHi));
+  } else {
+    edges.push(hi);
   }
-  return edges.filter((x, i) => i === 0 || x > edges[i - 1] + 1e-14 * scale);
+  // A repeated edge (an empty element) is dropped; the element that really starts there keeps the later order.
+  const kept: AxisElements = { edges: [edges[0]], orders: [orders[0]] };
+  for (let i = 1; i < edges.length; i++) {
+    const last = kept.edges.length - 1;
+    if (edges[i] <= kept.edges[last] + 1e-14 * scale) {
+      if (i < orders.length) kept.orders[last] = orders[i];
+      continue;
+    }
+    kept.edges.push(edges[i]);
+    if (i < orders.length) kept.orders.push(orders[i]);
+  }
+  kept.orders.length = kept.edges.length - 1;
+  return kept;
 }

@@ -4,7 +4,7 @@
  * matrix-free by LOBPCG and refined in order, grading and domain until the levels settle.
  */
 import { buildAxis, type AxisDvr, type AxisKind } from './axis-dvr.ts';
-import { axisBoundaries, tailCount, type AxisLayout } from './axis-mesh.ts';
+import { axisElements, tailCount, type AxisLayout } from './axis-mesh.ts';
 import { transferValues } from './grid-transfer.ts';
 import { lobpcg } from './lobpcg.ts';
 import { productOperator } from './product-hamiltonian.ts';
@@ -68,10 +68,11 @@ const guardVectors = 2;
 const maxEigenIterations = 400;
 const startOrder = 8;
 const maxOrder = 16;
-const startLayers = 3;
-const maxLayers = 7;
+const startLayers = 5;
+const maxLayers = 8;
 /** Initial reach of the open tails beyond the core, in widths of the state. */
-const startReach = 6;
+const startReach = 4;
+const gradedReach = 6;
 const tailStep = 1;
 const maxSizingRounds = 8;
 const maxConfirmRounds = 3;
@@ -131,8 +132,11 @@ function layoutFor(axis: GridAxis, center: number, width: number): { layout: Axi
   const coreLo = lo ?? Math.min(center - width, ...breakpoints.map((b) => b - width));
   const coreHi = hi ?? Math.max((lo ?? -Infinity) + width, center + width, ...breakpoints.map((b) => b + width));
   const singular = axis.kind === 'half-line' || axis.kind === 'rho' ? [0, ...breakpoints] : breakpoints;
-  const h = Math.min(width, coreHi - coreLo);
-  const tail = tailCount(h, startReach * width);
+  // On a smooth axis elements of two widths suffice (the order, not the element count, resolves a smooth state); a
+  // graded axis keeps one width, and its longer tails, since its states fall off slowly (Coulomb).
+  const graded = singular.length > 0;
+  const h = Math.min((graded ? 1 : 2) * width, coreHi - coreLo);
+  const tail = tailCount(h, (graded ? gradedReach : startReach) * width);
   return { layout: { lo, hi, coreLo, coreHi, tailLo: tail, tailHi: tail, singular, breakpoints }, h };
 }
 
@@ -231,15 +235,10 @@ function nodeValues(coefficients: Float64Array, weights: Float64Array): Float64A
 
 function solve(ctx: Context, plan: Plan, resolution: number, previous: Solution | null): Outcome<Solution> {
   const { order, layers, shrink } = resolutionOf(resolution);
-  const axes = ctx.problem.axes.map((axis, a) =>
-    buildAxis({
-      kind: axis.kind,
-      mass: axis.mass,
-      boundaries: axisBoundaries(plan.layouts[a], plan.h[a] * shrink, layers),
-      order,
-      angularMomentum: axis.kind === 'rho' ? ctx.m : 0,
-    }),
-  );
+  const axes = ctx.problem.axes.map((axis, a) => {
+    const { edges, orders } = axisElements(plan.layouts[a], plan.h[a] * shrink, layers, order);
+    return buildAxis({ kind: axis.kind, mass: axis.mass, boundaries: edges, orders, angularMomentum: axis.kind === 'rho' ? ctx.m : 0 });
+  });
   const size = axes.reduce((s, a) => s * a.size, 1);
   if (size > ctx.maxPoints) return { ok: false, tooLarge: true, message: `the next grid needs ${size} points, more than maxPoints = ${ctx.maxPoints}` };
   const potential = gridPotential(ctx, axes, size);
@@ -418,7 +417,7 @@ function report(ctx: Context, solution: Solution, errorEstimate: number[], conve
       weights: a.weights,
       domain: [a.mesh.boundaries[0], a.mesh.boundaries[a.mesh.boundaries.length - 1]] as [number, number],
       elements: a.mesh.boundaries.length - 1,
-      order: a.mesh.order,
+      order: Math.max(...a.mesh.orders),
     })),
     states: solution.states.slice(0, levels.length),
     residuals: solution.residuals.slice(0, levels.length),

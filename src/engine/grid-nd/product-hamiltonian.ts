@@ -4,8 +4,8 @@
  * 185 (1964)): each 1-D T_k + U_k = Q_k diag(lambda_k) Q_k^T, so the inverse is a product of 1-D transforms. U_k
  * is a non-negative 1-D cut of V (exact for a separable V), so confining potentials are preconditioned too.
  */
-import { jacobiEigen } from '../generalized-eigen.ts';
 import { denseAxisOperator, type AxisDvr } from './axis-dvr.ts';
+import { symmetricEigen } from './symmetric-eigen.ts';
 
 export interface ProductOperator {
   axes: AxisDvr[];
@@ -81,7 +81,8 @@ function kineticSpectrum(spectra: AxisSpectrum[], shape: number[], size: number)
   for (let a = 0; a < shape.length; a++) {
     const inner = strideOf(shape, a);
     const n = shape[a];
-    for (let p = 0; p < size; p++) sum[p] += spectra[a].values[Math.floor(p / inner) % n];
+    // T_k + U_k is positive definite; an eigenvalue that rounding (of order eps ||T_k||) made negative counts as 0.
+    for (let p = 0; p < size; p++) sum[p] += Math.max(0, spectra[a].values[Math.floor(p / inner) % n]);
   }
   return sum;
 }
@@ -93,7 +94,7 @@ export function productOperator(axes: AxisDvr[], potential: Float64Array, cuts: 
   const spectra: AxisSpectrum[] = axes.map((axis, a) => {
     const dense = denseAxisOperator(axis);
     for (let i = 0; i < axis.size; i++) dense[i * axis.size + i] += cuts[a][i];
-    return jacobiEigen(dense, axis.size);
+    return symmetricEigen(dense, axis.size);
   });
   const lambda = kineticSpectrum(spectra, shape, size);
   const work = [new Float64Array(size), new Float64Array(size)];

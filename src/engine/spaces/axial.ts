@@ -1,4 +1,5 @@
 import { axialEnergyIntegrand, axialVarianceIntegrand } from '../cubature/energy-integrands.ts';
+import { integrateAxial, type AxialPartition } from '../cubature/integrate-axial.ts';
 import type { PointFunction } from '../problem.ts';
 import { gridHint, type AxisPlacement, type FieldSpace } from './field-space.ts';
 import { lineSpace } from './line.ts';
@@ -30,7 +31,12 @@ export function axialSpace(m: number, mass: number): FieldSpace {
     axes: [planeSpace(m), lineSpace],
     energyIntegrand: (trial, potential) => axialEnergyIntegrand(closures(trial, potential)),
     varianceIntegrand: (trial, potential, energy) => axialVarianceIntegrand({ ...closures(trial, potential), laplacian: trial.laplacian }, energy),
-    order: [Z, RHO],
+    // Polar coordinates about each centre on the axis (the nuclei, else the trial's centre), split by fuzzy cells.
+    integrate: (integrand, components, placements, options) => {
+      const centres = placements[Z].breakpoints.length > 0 ? placements[Z].breakpoints : [placements[Z].center];
+      const scale = Math.max(placements[RHO].scale, placements[Z].scale);
+      return integrateAxial(integrand, components, centres, { scale, relTol: options.relTol, absTol: options.absTol, start: options.start as AxialPartition | undefined });
+    },
     singularities: (potential, placements) => [{ axis: Z, points: nucleiOnAxis(potential, placements[Z]) }],
     gridProblem: (potential, placements) => ({
       axes: [

@@ -1,7 +1,8 @@
 import { cartesianEnergyIntegrand, cartesianVarianceIntegrand } from '../cubature/energy-integrands.ts';
+import { integrateProduct, type CubaturePartition } from '../cubature/integrate-product.ts';
 import type { PointFunction } from '../problem.ts';
 import { boxSpace } from './box.ts';
-import { gridHint, type FieldSpace } from './field-space.ts';
+import { cubatureAxes, gridHint, type FieldSpace } from './field-space.ts';
 import { halfLineSpace } from './half-line.ts';
 import { lineSpace } from './line.ts';
 import type { CoordinateSpace } from './space.ts';
@@ -20,7 +21,9 @@ export function cartesianSpace(coordinates: Array<{ name: string; range: AxisRan
     energyIntegrand: (trial, potential) => cartesianEnergyIntegrand(closures(trial, potential)),
     // The compiled Laplacian is already sum_k d2_k psi / m_k.
     varianceIntegrand: (trial, potential, energy) => cartesianVarianceIntegrand({ ...closures(trial, potential), laplacian: trial.laplacian }, energy),
-    order: coordinates.map((_, k) => k),
+    integrate(integrand, components, placements, options) {
+      return integrateProduct(integrand, components, cubatureAxes(this, placements), { relTol: options.relTol, absTol: options.absTol, start: options.start as CubaturePartition | undefined });
+    },
     singularities: () => [],
     gridProblem: (potential, placements) => ({
       axes: coordinates.map((c, k) => ({

@@ -1,4 +1,4 @@
-import type { CubatureAxis, ProductIntegrand } from '../cubature/integrate-product.ts';
+import type { CubatureAxis, CubatureResult, ProductIntegrand } from '../cubature/integrate-product.ts';
 import type { ProductGridProblem } from '../grid-nd/product-grid-levels.ts';
 import type { FieldTrial, PointFunction } from '../problem.ts';
 import type { CoordinateSpace } from './space.ts';
@@ -14,7 +14,7 @@ export interface AxisPlacement {
 /**
  * A space of several coordinates (axial, a Cartesian product): its axes (each a space of one coordinate, whose
  * weight is the volume element along it and whose walls are the faces of the region), the integrands of the energy
- * over it, and the order to integrate the axes in. The evaluation reads such a space only through this.
+ * over it, and how to integrate over it. The evaluation reads such a space only through this.
  */
 export interface FieldSpace {
   name: 'axial' | 'product';
@@ -23,8 +23,11 @@ export interface FieldSpace {
   /** N, T and V integrands (the kinetic one already divided by 2m: masses may differ per axis). */
   energyIntegrand(trial: FieldTrial, potential: PointFunction): ProductIntegrand;
   varianceIntegrand(trial: FieldTrial, potential: PointFunction, energy: number): ProductIntegrand;
-  /** Which axis is integrated outermost first (axial: z, so that nuclei on the axis sit at panel corners). */
-  order: number[];
+  /**
+   * The integral over the space of an integrand that carries its volume element, with its error estimate, placed
+   * where the trial lives; `start` is a previous result's partition at nearby parameters.
+   */
+  integrate(integrand: ProductIntegrand, components: number, placements: AxisPlacement[], options: FieldCubatureOptions): FieldCubatureResult;
   /** Points along the axis where the potential is singular although no switch function marks them (axial: nuclei on the axis). */
   singularities(potential: PointFunction, placements: AxisPlacement[]): Array<{ axis: number; points: number[] }>;
   /** The product-grid problem of H on this space, its element edges at the split points and its scales from the placement. */
@@ -35,6 +38,15 @@ export interface FieldSpace {
 export function gridHint(placement: AxisPlacement): { center: number; width: number } {
   return { center: placement.center, width: placement.scale };
 }
+
+export interface FieldCubatureOptions {
+  relTol: number;
+  absTol?: number;
+  start?: unknown;
+}
+
+/** A cubature's values and diagnostics; its partition is the space's own, handed back as `start`. */
+export type FieldCubatureResult = Omit<CubatureResult, 'partition'> & { partition: unknown };
 
 /** The cubature axes of a space at a placement of the trial. */
 export function cubatureAxes(space: FieldSpace, placements: AxisPlacement[]): CubatureAxis[] {

@@ -1,17 +1,21 @@
 import type { MassProfile } from '../problem.ts';
 import type { VectorIntegrand } from '../quadrature.ts';
+import { negligibleAt, type TrialProbe } from '../trial-probe.ts';
 import type { CoordinateSpace, TrialFunctions } from './space.ts';
 
 /** The parts shared by the spaces of one Cartesian coordinate (line, half-line, box): weight 1, T = |psi'|^2 / 2m. */
+const weight = () => 1;
+
 export const flatCoordinate: Pick<CoordinateSpace, 'coordinate' | 'weight' | 'energyIntegrand' | 'varianceIntegrand' | 'centrifugal' | 'gridFactor'> = {
   coordinate: 'x',
-  weight: () => 1,
+  weight,
   centrifugal: () => 0,
   gridFactor: () => 1,
-  energyIntegrand(trial: TrialFunctions, potential: (x: number) => number, profile: MassProfile | null): VectorIntegrand {
+  energyIntegrand(trial: TrialFunctions, potential: (x: number) => number, profile: MassProfile | null, probe: TrialProbe): VectorIntegrand {
     if (profile) {
       return (x, out) => {
         const psi = trial.value(x);
+        if (negligibleAt(probe, weight, x, psi)) return out.fill(0);
         const dpsi = trial.d1(x);
         out[0] = psi * psi;
         out[1] = (dpsi * dpsi) / profile.value(x);
@@ -20,6 +24,7 @@ export const flatCoordinate: Pick<CoordinateSpace, 'coordinate' | 'weight' | 'en
     }
     return (x, out) => {
       const psi = trial.value(x);
+      if (negligibleAt(probe, weight, x, psi)) return out.fill(0);
       const dpsi = trial.d1(x);
       out[0] = psi * psi;
       out[1] = dpsi * dpsi;
@@ -27,11 +32,11 @@ export const flatCoordinate: Pick<CoordinateSpace, 'coordinate' | 'weight' | 'en
       out[2] = psi === 0 ? 0 : potential(x) * psi * psi;
     };
   },
-  varianceIntegrand(trial: TrialFunctions, potential: (x: number) => number, mass: number, energy: number, profile: MassProfile | null): VectorIntegrand {
+  varianceIntegrand(trial: TrialFunctions, potential: (x: number) => number, mass: number, energy: number, profile: MassProfile | null, probe: TrialProbe): VectorIntegrand {
     if (profile) {
       return (x, out) => {
         const psi = trial.value(x);
-        if (psi === 0) {
+        if (negligibleAt(probe, weight, x, psi)) {
           out[0] = 0;
           return;
         }
@@ -42,7 +47,7 @@ export const flatCoordinate: Pick<CoordinateSpace, 'coordinate' | 'weight' | 'en
     }
     return (x, out) => {
       const psi = trial.value(x);
-      if (psi === 0) {
+      if (negligibleAt(probe, weight, x, psi)) {
         out[0] = 0;
         return;
       }

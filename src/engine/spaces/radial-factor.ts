@@ -1,5 +1,6 @@
 import type { MassProfile } from '../problem.ts';
 import type { VectorIntegrand } from '../quadrature.ts';
+import { negligibleAt, type TrialProbe } from '../trial-probe.ts';
 import type { CoordinateSpace, TrialFunctions } from './space.ts';
 
 /** How a rotationally symmetric space of `dimension` dimensions weighs its radial factor R(r). */
@@ -26,10 +27,11 @@ export function radialFactor(form: RadialForm): Pick<CoordinateSpace, 'coordinat
     coordinate: 'r',
     weight,
     centrifugal,
-    energyIntegrand(trial: TrialFunctions, potential: (r: number) => number, profile: MassProfile | null): VectorIntegrand {
+    energyIntegrand(trial: TrialFunctions, potential: (r: number) => number, profile: MassProfile | null, probe: TrialProbe): VectorIntegrand {
       if (profile) {
         return (r, out) => {
           const R = trial.value(r);
+          if (negligibleAt(probe, weight, r, R)) return out.fill(0);
           const dR = trial.d1(r);
           const w = weight(r);
           out[0] = w * R * R;
@@ -39,6 +41,7 @@ export function radialFactor(form: RadialForm): Pick<CoordinateSpace, 'coordinat
       }
       return (r, out) => {
         const R = trial.value(r);
+        if (negligibleAt(probe, weight, r, R)) return out.fill(0);
         const dR = trial.d1(r);
         const w = weight(r);
         out[0] = w * R * R;
@@ -46,11 +49,11 @@ export function radialFactor(form: RadialForm): Pick<CoordinateSpace, 'coordinat
         out[2] = R === 0 ? 0 : w * potential(r) * R * R;
       };
     },
-    varianceIntegrand(trial: TrialFunctions, potential: (r: number) => number, mass: number, energy: number, profile: MassProfile | null): VectorIntegrand {
+    varianceIntegrand(trial: TrialFunctions, potential: (r: number) => number, mass: number, energy: number, profile: MassProfile | null, probe: TrialProbe): VectorIntegrand {
       if (profile) {
         return (r, out) => {
           const R = trial.value(r);
-          if (R === 0) {
+          if (negligibleAt(probe, weight, r, R)) {
             out[0] = 0;
             return;
           }
@@ -63,7 +66,7 @@ export function radialFactor(form: RadialForm): Pick<CoordinateSpace, 'coordinat
       }
       return (r, out) => {
         const R = trial.value(r);
-        if (R === 0) {
+        if (negligibleAt(probe, weight, r, R)) {
           out[0] = 0;
           return;
         }

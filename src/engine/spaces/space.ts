@@ -1,6 +1,8 @@
+import type { ValueDisplay } from '../format.ts';
 import type { GridLevels } from '../grid-levels.ts';
 import type { MassProfile, TrialFamily } from '../problem.ts';
 import type { VectorIntegrand } from '../quadrature.ts';
+import type { TrialProbe } from '../trial-probe.ts';
 
 /** The coordinate range of a space of one coordinate and its hard walls. */
 export interface Domain {
@@ -19,6 +21,8 @@ export interface GridRequest {
   breakpoints: number[];
   hint: { center: number; width: number };
   levels?: number;
+  /** How the grid's messages state energies and positions. */
+  display?: ValueDisplay;
 }
 
 /** The trial's functions an integrand reads (value and derivatives at one point). */
@@ -38,14 +42,14 @@ export interface CoordinateSpace extends Domain {
   /**
    * The three integrands of the energy at one parameter point: |psi|^2, the kinetic form 2m T (gradient form, no
    * second derivative; with a mass profile m(x) the form 2 T with 1/m(x) inside, BenDaniel & Duke, Phys. Rev. 152, 683
-   * (1966)) and V |psi|^2, each times the volume element.
+   * (1966)) and V |psi|^2, each times the volume element; 0 where the trial has decayed beyond its bulk (`probe`).
    */
-  energyIntegrand(trial: TrialFunctions, potential: (x: number) => number, profile: MassProfile | null): VectorIntegrand;
+  energyIntegrand(trial: TrialFunctions, potential: (x: number) => number, profile: MassProfile | null, probe: TrialProbe): VectorIntegrand;
   /**
    * |(H - E) psi|^2 times the volume element, H psi from the trial's symbolic second derivative (with a mass profile,
    * the BenDaniel–Duke operator -(1/2) div(grad psi / m)).
    */
-  varianceIntegrand(trial: TrialFunctions, potential: (x: number) => number, mass: number, energy: number, profile: MassProfile | null): VectorIntegrand;
+  varianceIntegrand(trial: TrialFunctions, potential: (x: number) => number, mass: number, energy: number, profile: MassProfile | null, probe: TrialProbe): VectorIntegrand;
   /**
    * The kinetic integrand of a pair of basis functions, 2m times: weight phi_i' phi_j' + centrifugal(x) phi_i phi_j;
    * centrifugal is the angular part of the kinetic energy times the weight (0 without one).

@@ -1,17 +1,25 @@
 import { describe, expect, it } from 'vitest';
 import {
-  axialAxes, axialEnergyIntegrand, axialVarianceIntegrand, cartesianEnergyIntegrand, cartesianVarianceIntegrand,
-  energyFromIntegrals, RHO, varianceOptions, Z, type AxialClosures, type CartesianClosures,
+  axialEnergyIntegrand, axialVarianceIntegrand, cartesianEnergyIntegrand, cartesianVarianceIntegrand,
+  energyFromIntegrals, RHO, varianceAbsTol, Z, type AxialClosures, type CartesianClosures,
 } from '../../../src/engine/cubature/energy-integrands.ts';
-import { integrateProduct, type CubatureAxis } from '../../../src/engine/cubature/integrate-product.ts';
+import { integrateAxial } from '../../../src/engine/cubature/integrate-axial.ts';
+import { integrateProduct, type CubatureAxis, type ProductIntegrand } from '../../../src/engine/cubature/integrate-product.ts';
 
 const relativeError = (value: number, exact: number) => Math.abs(value - exact) / Math.abs(exact);
 const SQRT_PI = Math.sqrt(Math.PI);
 const line = (scale = 1): CubatureAxis => ({ lo: -Infinity, hi: Infinity, breakpoints: [], center: 0, scale });
 
 /** Runs the energy integrals and checks that the estimate covers the true error of the energy. */
-function energyOf(integrand: ReturnType<typeof axialEnergyIntegrand>, axes: CubatureAxis[], order?: number[]) {
-  const result = integrateProduct(integrand, 3, axes, { order, relTol: 1e-10 });
+function energyOf(integrand: ProductIntegrand, axes: CubatureAxis[]) {
+  const result = integrateProduct(integrand, 3, axes, { relTol: 1e-10 });
+  expect(result.converged).toBe(true);
+  return energyFromIntegrals(result);
+}
+
+/** The same over the axial half-plane with Coulomb centres on the axis at `centres`. */
+function axialEnergyOf(integrand: ProductIntegrand, centres: number[], scale: number) {
+  const result = integrateAxial(integrand, 3, centres, { scale, relTol: 1e-10 });
   expect(result.converged).toBe(true);
   return energyFromIntegrals(result);
 }
@@ -31,11 +39,10 @@ function radialTrial(f: (r: number) => number, df: (r: number) => number, potent
 const coulomb = (r: number) => -1 / r;
 
 describe('axial energy integrands', () => {
-  const { axes, order } = axialAxes([0], 0, 1);
 
   it('give the hydrogen 1s kinetic and potential energies', () => {
     // psi = e^{-r}: <T> = 1/2, <V> = -1 hartree (virial theorem; any quantum mechanics text, e.g. Griffiths, Introduction to Quantum Mechanics, §4.2).
-    const e = energyOf(axialEnergyIntegrand(radialTrial((r) => Math.exp(-r), (r) => -Math.exp(-r), coulomb)), axes, order);
+    const e = axialEnergyOf(axialEnergyIntegrand(radialTrial((r) => Math.exp(-r), (r) => -Math.exp(-r), coulomb)), [0], 1);
     expect(Math.abs(e.kinetic - 0.5)).toBeLessThan(1e-10);
     expect(Math.abs(e.potential + 1)).toBeLessThan(1e-10);
     expect(Math.abs(e.energy + 0.5)).toBeLessThanOrEqual(Math.max(e.errorEstimate, 1e-15));
@@ -52,7 +59,7 @@ describe('axial energy integrands', () => {
         ...radialTrial((r) => Math.exp(-a * r * r), (r) => -2 * a * r * Math.exp(-a * r * r), coulomb),
         laplacian: (p: Float64Array) => { const r2 = p[RHO] ** 2 + p[Z] ** 2; return (4 * a * a * r2 - 6 * a) * Math.exp(-a * r2); },
       };
-      const e = energyOf(axialEnergyIntegrand(trial), axialAxes([0], 0, 1 / Math.sqrt(a)).axes, order);
+      const e = axialEnergyOf(axialEnergyIntegrand(trial), [0], 1 / Math.sqrt(a));
       const exact = 1.5 * a - 2 * Math.sqrt((2 * a) / Math.PI);
       expect(relativeError(e.energy, exact)).toBeLessThan(1e-9);
       expect(Math.abs(e.energy - exact)).toBeLessThanOrEqual(e.errorEstimate);
@@ -61,17 +68,15 @@ describe('axial energy integrands', () => {
       const [A, B, C] = [-2 * a * a, 1.5 * a + 2 * Math.sqrt((2 * a) / Math.PI), -1]; // B = 3a - E(a)
       const variance = (4 * Math.PI * (A * A * moment(6) + B * B * moment(2) + C * C * moment(0) + 2 * A * B * moment(4) + 2 * A * C * moment(3) + 2 * B * C * moment(1)))
         / (Math.PI / (2 * a)) ** 1.5;
-      if (a !== 0.1) continue;
-      // |(H - E) psi|^2 holds psi^2/r^2 at the nucleus, a point singularity in (rho, z) that costs millions of
-      // calls at tight tolerances, so the variance is checked at one width and 1e-8.
-      const result = integrateProduct(axialVarianceIntegrand(trial, e.energy), 1, axialAxes([0], 0, 1 / Math.sqrt(a)).axes, { ...varianceOptions(e), order, relTol: 1e-8 });
+      // |(H - E) psi|^2 holds psi^2/r^2 at the nucleus, smooth only in polar coordinates about it.
+      const result = integrateAxial(axialVarianceIntegrand(trial, e.energy), 1, [0], { absTol: varianceAbsTol(e), scale: 1 / Math.sqrt(a), relTol: 1e-10 });
       expect(result.converged).toBe(true);
-      expect(relativeError(result.values[0] / e.norm, variance)).toBeLessThan(1e-8);
+      expect(relativeError(result.values[0] / e.norm, variance)).toBeLessThan(1e-9);
       expect(Math.abs(result.values[0] / e.norm - variance)).toBeLessThanOrEqual(result.errorEstimates[0] / e.norm);
     }
-    const minimum = energyOf(axialEnergyIntegrand(radialTrial((r) => Math.exp(-8 * r * r / (9 * Math.PI)), (r) => (-16 * r / (9 * Math.PI)) * Math.exp(-8 * r * r / (9 * Math.PI)), coulomb)), axes, order);
+    const minimum = axialEnergyOf(axialEnergyIntegrand(radialTrial((r) => Math.exp(-8 * r * r / (9 * Math.PI)), (r) => (-16 * r / (9 * Math.PI)) * Math.exp(-8 * r * r / (9 * Math.PI)), coulomb)), [0], 2);
     expect(relativeError(minimum.energy, -4 / (3 * Math.PI))).toBeLessThan(1e-9);
-  }, 60_000);
+  });
 
   it('give a variance at rounding level for the exact hydrogen 1s state', () => {
     // H e^{-r} = -1/2 e^{-r} exactly (hydrogen ground state, any quantum mechanics text): ||(H - E) psi||^2 = 0.
@@ -79,8 +84,8 @@ describe('axial energy integrands', () => {
       ...radialTrial((r) => Math.exp(-r), (r) => -Math.exp(-r), coulomb),
       laplacian: (p: Float64Array) => { const r = Math.hypot(p[RHO], p[Z]); return (1 - 2 / r) * Math.exp(-r); },
     };
-    const e = energyOf(axialEnergyIntegrand(trial), axes, order);
-    const result = integrateProduct(axialVarianceIntegrand(trial, e.energy), 1, axes, { ...varianceOptions(e), order });
+    const e = axialEnergyOf(axialEnergyIntegrand(trial), [0], 1);
+    const result = integrateAxial(axialVarianceIntegrand(trial, e.energy), 1, [0], { absTol: varianceAbsTol(e), scale: 1 });
     expect(result.converged).toBe(true);
     expect(result.values[0] / e.norm).toBeLessThan(1e-12);
   });
@@ -95,9 +100,30 @@ describe('axial energy integrands', () => {
       mass: 1,
       magnetic: 1,
     };
-    const e = energyOf(axialEnergyIntegrand(trial), axialAxes([0], 0, 2).axes, order);
+    const e = axialEnergyOf(axialEnergyIntegrand(trial), [0], 2);
     expect(Math.abs(e.kinetic - 0.125)).toBeLessThan(1e-10);
     expect(Math.abs(e.potential + 0.25)).toBeLessThan(1e-10);
+  });
+
+  it('give the energy of a polarised trial for hydrogen in a field along z', () => {
+    // psi = (1 + b z) e^{-r}, V = -1/r + F z: with int e^{-2r} = pi, int z^2 e^{-2r} = pi, H0 (z e^{-r}) = (1/r - 1/2) z e^{-r}
+    // and int z^2 e^{-2r}/r = pi/2 (closed forms), E(b) = (-1/2 + 2 b F)/(1 + b^2), whose minimum gives the
+    // polarisability 4 of this trial (e.g. Schiff, Quantum Mechanics, 3rd ed., §32; from memory).
+    const F = 0.05;
+    for (const b of [-0.1, 0.3]) {
+      const trial: AxialClosures = {
+        value: (p) => (1 + b * p[Z]) * Math.exp(-Math.hypot(p[RHO], p[Z])),
+        dRho: (p) => { const r = Math.hypot(p[RHO], p[Z]); return (-(1 + b * p[Z]) * p[RHO] / r) * Math.exp(-r); },
+        dZ: (p) => { const r = Math.hypot(p[RHO], p[Z]); return (b - (1 + b * p[Z]) * p[Z] / r) * Math.exp(-r); },
+        potential: (p) => -1 / Math.hypot(p[RHO], p[Z]) + F * p[Z],
+        mass: 1,
+        magnetic: 0,
+      };
+      const e = axialEnergyOf(axialEnergyIntegrand(trial), [0], 1);
+      const exact = (-0.5 + 2 * b * F) / (1 + b * b);
+      expect(relativeError(e.energy, exact)).toBeLessThan(1e-9);
+      expect(Math.abs(e.energy - exact)).toBeLessThanOrEqual(e.errorEstimate);
+    }
   });
 
   it('give the LCAO energy of H2+ at R = 2 with two nuclei on the axis', () => {
@@ -121,9 +147,7 @@ describe('axial energy integrands', () => {
     const S = Math.exp(-R) * (1 + R + (R * R) / 3);
     const J = 1 / R - Math.exp(-2 * R) * (1 + 1 / R);
     const K = Math.exp(-R) * (1 + R);
-    const placed = axialAxes([za, zb], 0, 1);
-    const result = integrateProduct(axialEnergyIntegrand(trial), 3, placed.axes, { order: placed.order, relTol: 1e-10 });
-    const e = energyFromIntegrals(result);
+    const e = axialEnergyOf(axialEnergyIntegrand(trial), [za, zb], 1);
     // <psi|psi> = <a|a> + <b|b> + 2<a|b> = 2 pi (1 + S), as int e^{-2r} d^3r = pi (closed form).
     expect(relativeError(e.norm, 2 * Math.PI * (1 + S))).toBeLessThan(1e-10);
     expect(relativeError(e.energy, -0.5 - (J + K) / (1 + S))).toBeLessThan(1e-9);
@@ -153,7 +177,7 @@ describe('Cartesian energy integrands', () => {
     const cases = [
       { widths: [0.7, 0.2], masses: [1, 3], omegas: [1, 0.5] },
       { widths: [0.5, 1.2, 0.9], masses: [1, 2, 0.5], omegas: [1, 1.2, 4] },
-      { widths: [0.5, 1.2, 1], masses: [1, 2, 0.5], omegas: [1, 1.2, 4] }, // the exact ground state
+      { widths: [0.5, 1.2], masses: [1, 2], omegas: [1, 1.2] }, // the exact ground state
     ];
     for (const { widths, masses, omegas } of cases) {
       const trial = oscillator(widths, masses, omegas);
@@ -163,7 +187,7 @@ describe('Cartesian energy integrands', () => {
       expect(relativeError(e.energy, exact)).toBeLessThan(1e-9);
       expect(Math.abs(e.energy - exact)).toBeLessThanOrEqual(e.errorEstimate);
       const variance = widths.reduce((sum, a, k) => sum + (0.5 * masses[k] * omegas[k] ** 2 - (2 * a * a) / masses[k]) ** 2 / (8 * a * a), 0);
-      const result = integrateProduct(cartesianVarianceIntegrand(trial, e.energy), 1, axes, varianceOptions(e));
+      const result = integrateProduct(cartesianVarianceIntegrand(trial, e.energy), 1, axes, { absTol: varianceAbsTol(e), relTol: 1e-9 });
       expect(result.converged).toBe(true);
       expect(Math.abs(result.values[0] / e.norm - variance)).toBeLessThan(1e-8 * Math.max(variance, e.energy * e.energy));
     }

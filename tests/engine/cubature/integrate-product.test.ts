@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { integrateVector } from '../../../src/engine/quadrature.ts';
 import { integrateProduct, type CubatureAxis, type CubaturePartition, type ProductIntegrand } from '../../../src/engine/cubature/integrate-product.ts';
 
 const TWO_PI = 2 * Math.PI;
@@ -53,6 +54,19 @@ describe('integrateProduct', () => {
     expectHonest(result.values[1], result.errorEstimates[1], Math.PI, 1e-9);
   });
 
+  it('keeps a converged estimate within the tolerance where the tails would add up past it', () => {
+    // int e^{-r^2/5} / r^2 d^3r = 4 pi int_0^inf e^{-r^2/5} dr = 2 pi sqrt(5 pi) (Gaussian integral, closed form),
+    // written in (z, rho) without the 2 pi: a 1/r^2 point singularity whose inner runs' tails exceed the
+    // tails' share of the tolerance, so the run is redone with relative tolerances throughout.
+    const result = integrateProduct((p, out) => {
+      const r2 = p[0] * p[0] + p[1] * p[1];
+      out[0] = (p[1] * Math.exp(-0.2 * r2)) / r2;
+    }, 1, [line([0]), halfLine()], { relTol: 1e-6 });
+    expect(result.converged).toBe(true);
+    expectHonest(result.values[0], result.errorEstimates[0], Math.sqrt(5 * Math.PI), 1e-6);
+    expect(result.errorEstimates[0]).toBeLessThanOrEqual(1e-6 * result.values[0]);
+  });
+
   it('integrates anisotropic Gaussians over 3 lines and a box face', () => {
     // int exp(-(x^2 + 2 y^2 + 3 z^2)) d^3x = pi^(3/2) / sqrt(6) (Gaussian integral, closed form);
     // int_0^pi sin x dx * int exp(-y^2) dy * int_0^inf z e^{-z} dz = 2 sqrt(pi) (closed forms).
@@ -96,5 +110,22 @@ describe('integrateProduct', () => {
     expect(result.status).toBe('non-finite');
     expect(result.message).toMatch(/x0 = .*axis 1/);
     expect(result.partition).toBeNull();
+  });
+});
+
+describe('integrateVector with components carried along', () => {
+  it('lets only the tested components decide the panels, integrating the rest on them', () => {
+    // int_0^1 e^x dx = e - 1 and int_0^1 x^(-1/2) dx = 2 (closed forms); the second, singular at 0,
+    // needs many bisections to meet the tolerance when tested and none when it is only carried.
+    const integrand = (x: number, out: Float64Array) => { out[0] = Math.exp(x); out[1] = 1 / Math.sqrt(x); };
+    const carried = integrateVector(integrand, 2, { breakpoints: [0, 1], relTol: 1e-12, tested: 1 });
+    const both = integrateVector(integrand, 2, { breakpoints: [0, 1], relTol: 1e-12 });
+    expect(carried.converged).toBe(true);
+    expect(carried.intervals).toBe(1);
+    expect(relativeError(carried.values[0], Math.E - 1)).toBeLessThan(1e-14);
+    expect(both.intervals).toBeGreaterThan(10);
+    expect(relativeError(both.values[1], 2)).toBeLessThan(1e-11);
+    expect(Math.abs(carried.values[1] - 2)).toBeGreaterThan(1e-6); // one panel cannot resolve x^(-1/2)
+    expect(() => integrateVector(integrand, 2, { breakpoints: [0, 1], tested: 3 })).toThrow(RangeError);
   });
 });
