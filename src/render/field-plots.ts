@@ -32,6 +32,9 @@ function picture(field: FieldDensity, units: PlotUnits): string {
   const grid = { width: x.length, height: y.length, ...bounds };
   const through = { h: field.through[field.plane[0]], v: field.through[field.plane[1]] };
   const perUnit = `${units.length}⁻${superscript(field.dimension)}`;
+  // Tick labels stay short in the narrow legend: very small or large densities carry a power of ten in the label.
+  const power = Math.floor(Math.log10(peak));
+  const legendUnit = power < -1 || power > 2 ? { factor: 10 ** power, label: `10${superscript(power)} ` } : { factor: 1, label: '' };
   const marks: Plot.Markish[] = [
     // Each level fills where the density reaches it; the darker bands stack on the lighter ones.
     ...levels.map((t, i) => Plot.contour(density, { ...grid, thresholds: [t], fill: GREYS[i + 1], stroke: INK, strokeWidth: 0.7 })),
@@ -55,7 +58,7 @@ function picture(field: FieldDensity, units: PlotUnits): string {
       height,
       x: { label: `${h} (${units.length})`, domain: [bounds.x1, bounds.x2] },
       y: { label: `${v} (${units.length})`, domain: [bounds.y1, bounds.y2] },
-      color: { type: 'threshold', domain: levels, range: GREYS, legend: true, label: `trial density |ψ|² (${perUnit})`, tickFormat: (d: number) => formatNumber(d, 2) },
+      color: { type: 'threshold', domain: levels, range: GREYS, legend: true, label: `trial density |ψ|² (${legendUnit.label}${perUnit})`, tickFormat: (d: number) => formatNumber(d / legendUnit.factor, 2) },
       marks,
     },
     `Trial density |ψ|²${where}: grey bands between contour lines at ${LEVELS.map((f) => `${Math.round(100 * f)}`).join(', ')} % of its peak (labelled on the lines), darker is denser; the legend gives the levels in ${perUnit}. Dashed lines: the cuts that follow, crossing at the ${field.throughKind} (${crossing} ${units.length}).`,
@@ -96,7 +99,9 @@ function cuts(field: FieldDensity, result: BlockResult, units: PlotUnits): strin
     const others = field.coordinates.flatMap((c, j) => (j === k ? [] : [`${c} = ${at(j)} ${units.length}`])).join(', ');
     const grid = cut.grid.length > 0 ? '; open circles: grid ground-state density at its nodes on this line; both' : ',';
     const reference = result.reference?.energy != null ? ' Dashed: reference ground energy.' : '';
-    const caption = `Cut along ${cut.coordinate} through the ${field.throughKind} (${others}). Thick grey: potential V. Shaded with line: trial density |ψ|² (per ${perUnit})${grid} scaled and drawn from the level E.${reference}`;
+    // With a grid the crossing point sits on the nearest grid line, so the grid's own nodes lie on the cut.
+    const where = cut.grid.length > 0 ? `through the ${field.throughKind}, moved onto the nearest grid line (${others})` : `through the ${field.throughKind} (${others})`;
+    const caption = `Cut along ${cut.coordinate} ${where}. Thick grey: potential V. Shaded with line: trial density |ψ|² (per ${perUnit})${grid} scaled and drawn from the level E.${reference}`;
     return densityPlot(cut, cut.coordinate, caption, result, units);
   });
 }
@@ -112,5 +117,5 @@ function coordinateFormat(field: FieldDensity): (k: number) => string {
 }
 
 function superscript(n: number): string {
-  return String(n).replace(/\d/g, (d) => '⁰¹²³⁴⁵⁶⁷⁸⁹'[Number(d)]);
+  return String(n).replace(/\d/g, (d) => '⁰¹²³⁴⁵⁶⁷⁸⁹'[Number(d)]).replace('-', '⁻');
 }

@@ -112,7 +112,8 @@ report: { plots: [density] }`);
     // The cut reaches about the dot's size in nm, not in bohr (l_x is about 23 nm).
     expect(alongX.samples[alongX.samples.length - 1].x).toBeGreaterThan(lx);
     const svgs = renderPlots(result, { energy: 'meV', length: 'nm', parameters: {} });
-    expect(svgs[0]).toContain('trial density |ψ|² (nm⁻²)');
+    // Peak 1/(pi l_x l_y), about 7e-4 nm^-2: the legend carries the power of ten.
+    expect(svgs[0]).toContain('trial density |ψ|² (10⁻⁴ nm⁻²)');
   });
 });
 
@@ -156,5 +157,8 @@ report: { plots: [density] }`);
     expect(alongY.grid.length).toBeGreaterThan(10);
     for (const g of alongX.grid) expect(g.density).toBeCloseTo(exact(g.x, field.through[1]), 5);
     for (const g of alongY.grid) expect(g.density).toBeCloseTo(exact(field.through[0], g.x), 5);
+    const svgs = renderPlots(result, { energy: 'hartree', length: 'bohr', parameters: {} });
+    expect(svgs[1]).toContain('Cut along x through the potential minimum, moved onto the nearest grid line (y = ');
+    expect(svgs[1]).toContain('open circles: grid ground-state density at its nodes on this line');
   });
 });
