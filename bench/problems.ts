@@ -5,11 +5,13 @@ import { evaluateBlock } from '../src/log/evaluate-block.ts';
 import { parseRecord } from '../src/spec/parse-record.ts';
 import { closureNanoseconds } from './closure-floor.ts';
 import { benchSyntheticLog } from './log200.ts';
+import { benchReview } from './review.ts';
 import { benchStartup } from './startup.ts';
 
 /**
  * Evaluates every benchmark record repeatedly (and the records of two and three coordinates in bench/fields), then checks a synthetic 200-block log through the CLI
- * cold and cached, times the command line's start-up (`startupMs`, `cachedOneFileMs`: see startup.ts),
+ * cold and cached, reviews it in git (bench/review.ts: `diff HEAD~1` with 5 changed blocks, systems and histories
+ * against a cached check), times the command line's start-up (`startupMs`, `cachedOneFileMs`: see startup.ts),
  * and prints one comparable JSON document (progress on stderr).
  * Usage: tsx bench/problems.ts [folder] [--problems-only]; the flag leaves out the synthetic log.
  *

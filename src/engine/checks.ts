@@ -4,7 +4,7 @@ import type { GridLevels } from './grid-levels.ts';
 import type { MinimizeResult } from './minimize.ts';
 import { describeLevel, GROUND_LEVEL, type TargetLevel } from './parity.ts';
 import type { ProblemBase } from './problem.ts';
-import { gradedCheck, type GradedCheck } from './status.ts';
+import { gradedCheck, measured, type GradedCheck } from './status.ts';
 
 /** What the checks shared by the trial and the basis evaluations read from a problem. */
 export type CheckedProblem = Pick<ProblemBase, 'parameters' | 'reference' | 'claim' | 'display'>;
@@ -71,22 +71,18 @@ export function referenceChecks(problem: CheckedProblem, energy: number, toleran
       const e0 = grid.levels[target.gridIndex];
       const slack = tolerance + 10 * (grid.errorEstimate[target.gridIndex] ?? 0);
       checks.push(
-        gradedCheck(
-          'above-grid-reference',
-          energy >= e0 - slack,
-          `E - ${name} = ${show.energy(energy - e0, 4)} (must be >= -${show.energy(slack, 2)})`,
-          'below-reference',
+        measured(
+          gradedCheck('above-grid-reference', energy >= e0 - slack, `E - ${name} = ${show.energy(energy - e0, 4)} (must be >= -${show.energy(slack, 2)})`, 'below-reference'),
+          { value: energy - e0, limit: -slack, relation: '>=', quantity: 'energy' },
         ),
       );
       if (published) {
         const gap = Math.abs(e0 - published.value);
         const allowed = published.tolerance + slack;
         checks.push(
-          gradedCheck(
-            'grid-matches-published',
-            gap <= allowed,
-            `|${name} - published| = ${show.energy(gap, 3)} (allowed ${show.energy(allowed, 3)}: the published value's precision plus the grid's)`,
-            'unsettled',
+          measured(
+            gradedCheck('grid-matches-published', gap <= allowed, `|${name} - published| = ${show.energy(gap, 3)} (allowed ${show.energy(allowed, 3)}: the published value's precision plus the grid's)${toleranceNote(published, show)}`, 'unsettled'),
+            { value: gap, limit: allowed, relation: '<=', quantity: 'energy' },
           ),
         );
       }
@@ -95,11 +91,9 @@ export function referenceChecks(problem: CheckedProblem, energy: number, toleran
   if (published) {
     const slack = published.tolerance + tolerance;
     checks.push(
-      gradedCheck(
-        'above-published-reference',
-        energy >= published.value - slack,
-        `E - E(published) = ${show.energy(energy - published.value, 4)} (must be >= -${show.energy(slack, 2)}; ${published.source})`,
-        'below-reference',
+      measured(
+        gradedCheck('above-published-reference', energy >= published.value - slack, `E - E(published) = ${show.energy(energy - published.value, 4)} (must be >= -${show.energy(slack, 2)}; ${published.source})${toleranceNote(published, show)}`, 'below-reference'),
+        { value: energy - published.value, limit: -slack, relation: '>=', quantity: 'energy' },
       ),
     );
   }
@@ -114,11 +108,9 @@ export function claimChecks(problem: CheckedProblem, energy: number, best: numbe
   if (claim.energy) {
     const off = Math.abs(energy - claim.energy.value);
     checks.push(
-      gradedCheck(
-        'claim-energy',
-        off <= claim.energy.tolerance,
-        `claimed ${show.energy(claim.energy.value)} +/- ${show.energy(claim.energy.tolerance, 3)}, recomputed ${show.energy(energy)} (off by ${show.energy(off, 3)})`,
-        'disputed',
+      measured(
+        gradedCheck('claim-energy', off <= claim.energy.tolerance, `claimed ${show.energy(claim.energy.value)} +/- ${show.energy(claim.energy.tolerance, 3)}, recomputed ${show.energy(energy)} (off by ${show.energy(off, 3)})`, 'disputed'),
+        { value: off, limit: claim.energy.tolerance, relation: '<=', quantity: 'energy' },
       ),
     );
   }
@@ -127,15 +119,18 @@ export function claimChecks(problem: CheckedProblem, energy: number, best: numbe
     const value = best[index];
     const off = Math.abs(value - claimed.value);
     checks.push(
-      gradedCheck(
-        `claim-parameter-${name}`,
-        off <= claimed.tolerance,
-        `claimed ${name} = ${show.parameter(name, claimed.value)} +/- ${show.parameter(name, claimed.tolerance, 3)}, optimum ${show.parameter(name, value)} (off by ${show.parameter(name, off, 3)})`,
-        'disputed',
+      measured(
+        gradedCheck(`claim-parameter-${name}`, off <= claimed.tolerance, `claimed ${name} = ${show.parameter(name, claimed.value)} +/- ${show.parameter(name, claimed.tolerance, 3)}, optimum ${show.parameter(name, value)} (off by ${show.parameter(name, off, 3)})`, 'disputed'),
+        { value: off, limit: claimed.tolerance, relation: '<=', quantity: { parameter: name } },
       ),
     );
   }
   return checks;
+}
+
+/** Which tolerance the published value was given and why, for the details of the checks that use it. */
+function toleranceNote(published: NonNullable<ProblemBase['reference']['published']>, show: typeof ATOMIC_DISPLAY): string {
+  return published.toleranceBasis ? `; published value taken to +/- ${show.energy(published.tolerance, 3)}, ${published.toleranceBasis}` : '';
 }
 
 /**

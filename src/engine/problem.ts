@@ -50,7 +50,8 @@ export interface ProblemBase {
   potential: (x: number) => number;
   potentialSwitches: Array<(x: number) => number>;
   parameters: ParameterSpec[];
-  reference: { solve: boolean; published: (ToleratedValue & { source: string }) | null };
+  /** `toleranceBasis` says where the published value's tolerance comes from, for the check details. */
+  reference: { solve: boolean; published: (ToleratedValue & { source: string; toleranceBasis?: string }) | null };
   claim: { energy: ToleratedValue | null; parameters: Record<string, ToleratedValue> } | null;
   /** Which plot data to sample at the optimum. */
   plots: ReadonlyArray<'scan' | 'density'>;

@@ -6,6 +6,18 @@ export interface Check {
   name: string;
   pass: boolean;
   detail: string;
+  /**
+   * The number the check compared and its limit, for scripts (the detail says the same in words): passes when
+   * `value` `relation` `limit`. `quantity` says what they are measured in (an energy, a parameter's unit, a pure number).
+   */
+  measure?: Measure;
+}
+
+export interface Measure {
+  value: number;
+  limit: number;
+  relation: '>=' | '<=';
+  quantity: 'energy' | 'ratio' | { parameter: string };
 }
 
 /** A check and the status its failure gives the block. */
@@ -17,6 +29,11 @@ export interface GradedCheck extends Check {
 
 export function gradedCheck(name: string, pass: boolean, detail: string, failure: GradedCheck['failure'], field?: GradedCheck['field']): GradedCheck {
   return field ? { name, pass, detail, failure, field } : { name, pass, detail, failure };
+}
+
+/** The same check with the number it compared and its limit beside the words. */
+export function measured(check: GradedCheck, measure: Measure): GradedCheck {
+  return { ...check, measure };
 }
 
 /** The first status in STATUS_ORDER that a failing check calls for, and the reasons for it. */

@@ -15,11 +15,16 @@ export const blockKey = (file: string, line: number, hash: string) => `${file}\0
  * stopped result rather than evaluate the block again without any limit.
  */
 export function writeBuildResults(cacheRoot: string, log: LogResult): void {
-  const temp = join(cacheRoot, `.${FILE}.${process.pid}.${randomBytes(4).toString('hex')}.tmp`);
+  writeJsonAtomically(cacheRoot, FILE, { evaluator: evaluatorFingerprint(), records: log.records });
+}
+
+/** Writes a file of the build whole or not at all (a page must never read half of one); a failure only loses it. */
+export function writeJsonAtomically(folder: string, file: string, data: unknown): void {
+  const temp = join(folder, `.${file}.${process.pid}.${randomBytes(4).toString('hex')}.tmp`);
   try {
-    mkdirSync(cacheRoot, { recursive: true });
-    writeFileSync(temp, JSON.stringify({ evaluator: evaluatorFingerprint(), records: log.records }));
-    renameSync(temp, join(cacheRoot, FILE));
+    mkdirSync(folder, { recursive: true });
+    writeFileSync(temp, JSON.stringify(data));
+    renameSync(temp, join(folder, file));
   } catch {
     rmSync(temp, { force: true });
   }

@@ -5,7 +5,7 @@ import type { BlockTask } from './evaluate-task.ts';
 import { inputHash } from './input-hash.ts';
 import { invalidBlock, unparsedBlock } from './invalid-block.ts';
 import { loadLogConfig, type LogConfig } from './log-config.ts';
-import { readRecordText, recordResult } from './record-text.ts';
+import { readRecordText, recordResult, type RecordText } from './record-text.ts';
 import { openResultCache, type SpecEntry } from './result-cache.ts';
 import type { BlockResult, LogResult, RecordResult } from './result-types.ts';
 import type { RecordSpec } from '../spec/types.ts';
@@ -46,6 +46,12 @@ export function collectRecordFiles(paths: string[]): { files: string[]; missing:
   return { files: [...new Set(files)], missing };
 }
 
+/** A record given by its text instead of a file: an older version of it read from git. `name` is what results call it. */
+export interface RecordSource {
+  name: string;
+  text: string;
+}
+
 export interface CheckLogOptions {
   /** The log root: where groundwork.config.json is read, and what record names are relative to (default: the working folder). */
   root?: string;
@@ -74,6 +80,8 @@ export interface CheckStats {
   writeErrors: number;
   /** The most workers the run may use (the configured number). */
   workers: number;
+  /** The block results of this run that were taken from the cache rather than evaluated (for the table's time column). */
+  fromCache: ReadonlySet<BlockResult>;
 }
 
 /**
@@ -83,7 +91,7 @@ export interface CheckStats {
  * stored. Records and blocks come out in the order of `files` and of the blocks in each file, however
  * the workers finish.
  */
-export async function checkLog(files: string[], options: CheckLogOptions = {}): Promise<{ log: LogResult; stats: CheckStats }> {
+export async function checkLog(files: Array<string | RecordSource>, options: CheckLogOptions = {}): Promise<{ log: LogResult; stats: CheckStats }> {
   const root = options.root ?? process.cwd();
   const config = options.config ?? loadLogConfig(root);
   const cache = openResultCache(config.cacheFolder);
@@ -92,7 +100,7 @@ export async function checkLog(files: string[], options: CheckLogOptions = {}): 
   const parsed: Array<{ spec: RecordSpec; text: string } | null> = [];
   let parseRecord = options.parseRecord;
   for (const file of files) {
-    const read = readRecordText(file, root);
+    const read: RecordText = typeof file === 'string' ? readRecordText(file, root) : { kind: 'text', ...file };
     const hit = read.kind === 'unreadable' ? read.result : options.recompute ? null : cache.getRecord(read.name, read.text);
     done.push(hit);
     if (hit || read.kind === 'unreadable') parsed.push(null);
@@ -101,12 +109,13 @@ export async function checkLog(files: string[], options: CheckLogOptions = {}): 
       parsed.push({ spec: parseRecord(read.name, read.text), text: read.text });
     }
   }
+  const fromCache = new Set<BlockResult>(done.flatMap((hit) => hit?.blocks ?? []));
   const results: BlockResult[][] = parsed.map((p) => (p ? new Array(p.spec.blocks.length) : []));
   const misses: Array<{ record: number; block: number; file: string; entry: SpecEntry }> = [];
   parsed.forEach((p, record) => {
     p?.spec.blocks.forEach((entry, block) => {
       const stored = options.recompute ? null : cache.get(p.spec.file, entry);
-      if (stored) results[record][block] = stored;
+      if (stored) fromCache.add((results[record][block] = stored));
       // A block that did not parse only needs its problems turned into a result, which this thread does.
       else if (entry.kind === 'invalid') results[record][block] = cache.put(entry, unparsedBlock(entry));
       else misses.push({ record, block, file: p.spec.file, entry });
@@ -145,7 +154,7 @@ export async function checkLog(files: string[], options: CheckLogOptions = {}): 
   const blocks = records.reduce((n, record) => n + record.blocks.length, 0);
   return {
     log: { tool: { name: 'groundwork', version: TOOL_VERSION }, records },
-    stats: { blocks, evaluated: blocks - cache.stats.hits, cached: cache.stats.hits, corrupt: cache.stats.corrupt, timedOut, overMemory, writeErrors: cache.stats.writeErrors, workers: config.workers },
+    stats: { blocks, evaluated: blocks - cache.stats.hits, cached: cache.stats.hits, corrupt: cache.stats.corrupt, timedOut, overMemory, writeErrors: cache.stats.writeErrors, workers: config.workers, fromCache },
   };
 }
 

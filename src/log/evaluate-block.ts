@@ -8,11 +8,13 @@ import { axialSpace } from '../engine/spaces/axial.ts';
 import { cartesianSpace } from '../engine/spaces/cartesian.ts';
 import { compileBlock } from '../expr/compile-block.ts';
 import { compileFieldBlock } from '../expr/compile-field-block.ts';
+import { texOptions } from '../expr/symbol-tex.ts';
 import { coordinatesOf, isLineSpace, type BlockEntry, type BlockSpec, type LineSpace, type SpecProblem } from '../spec/types.ts';
+import { hamiltonianSamples } from './hamiltonian-samples.ts';
 import { inputHash } from './input-hash.ts';
 import { invalidBlock, unparsedBlock } from './invalid-block.ts';
 import { blockUnitsDisplay, inBlockUnits } from './units-back.ts';
-import type { BlockInputs, BlockResult } from './result-types.ts';
+import type { BlockInputs, BlockResult, Hamiltonian } from './result-types.ts';
 
 const ENERGY_UNIT = 'hartree';
 
@@ -30,28 +32,32 @@ export function evaluateBlock(file: string, entry: BlockEntry): BlockResult {
     return invalidBlock(spec.id, spec.line, spec.caption, problems, hash, started);
   }
   const { engine, trees, mass } = evaluated;
+  // Units bound as constants in quantity mode stay upright; everything the author declared is a symbol.
+  const bound = new Set(spec.quantity?.bound ?? []);
+  const declared = new Set([...coordinatesOf(spec.space), ...spec.varied.map((p) => p.name), ...Object.keys(spec.fixed), ...Object.keys(spec.constants).filter((name) => !bound.has(name))]);
+  const tex = texOptions(declared);
   const inputs: BlockInputs = {
     space: spec.space,
     coordinates: coordinatesOf(spec.space),
     box: spec.box,
     angularMomentum: spec.angularMomentum,
     mass: trees.mass ? null : mass,
-    massTex: trees.mass?.toTex() ?? null,
+    massTex: trees.mass?.toTex(tex) ?? null,
     masses: spec.masses,
     coordinate: coordinatesOf(spec.space)[0],
     lengthUnit: 'bohr',
-    potentialTex: trees.potential.toTex(),
-    trialTex: trees.trial?.toTex() ?? null,
-    basisTex: trees.basis?.map((tree) => tree.toTex()) ?? null,
+    potentialTex: trees.potential.toTex(tex),
+    trialTex: trees.trial?.toTex(tex) ?? null,
+    basisTex: trees.basis?.map((tree) => tree.toTex(tex)) ?? null,
     constants: spec.constants,
     ranges: spec.varied.map(({ name, start, min, max }) => ({ name, start, min, max })),
   };
-  const result = toBlockResult(file, spec, inputs, engine, hash, started);
+  const result = { ...toBlockResult(file, spec, inputs, engine, hash, started), hamiltonian: evaluated.hamiltonian };
   return spec.quantity ? inBlockUnits(result, spec.quantity) : result;
 }
 
 type Evaluated =
-  | { ok: true; engine: EngineResult; trees: { potential: MathNode; mass: MathNode | null; trial: MathNode | null; basis: MathNode[] | null }; mass: number }
+  | { ok: true; engine: EngineResult; trees: { potential: MathNode; mass: MathNode | null; trial: MathNode | null; basis: MathNode[] | null }; mass: number; hamiltonian: Hamiltonian | null }
   | { ok: false; problems: Array<{ line: number; field: string | null; message: string }> };
 
 /** A block on a space of one coordinate: compiled to functions of x (or r), evaluated by the one-coordinate engine. */
@@ -69,7 +75,8 @@ function evaluateLineBlock(spec: BlockSpec): Evaluated {
     ...shared(spec),
   };
   const { trial, basis } = compiled.block;
-  return guarded(spec, () => (trial ? evaluateProblem({ ...base, trial }) : evaluateBasisProblem({ ...base, basis: basis!, states: spec.states })), compiled.block.trees, compiled.block.mass);
+  const hamiltonian = hamiltonianSamples(spec, spec.space as LineSpace, compiled.block);
+  return guarded(spec, () => (trial ? evaluateProblem({ ...base, trial }) : evaluateBasisProblem({ ...base, basis: basis!, states: spec.states })), compiled.block.trees, compiled.block.mass, hamiltonian);
 }
 
 /** A block on axial or a product space: compiled to functions of a point, evaluated by product cubature and grid. */
@@ -85,7 +92,8 @@ function evaluateFieldBlock(spec: BlockSpec): Evaluated {
       ? cartesianSpace(Object.entries(written).map(([name, range]) => ({ name, range, mass: spec.masses?.[name] ?? mass })))
       : axialSpace(spec.angularMomentum, mass);
   const problem: FieldProblem = { space, potential: block.potential, potentialSwitches: block.potentialSwitches, trial: block.trial, ...shared(spec) };
-  return guarded(spec, () => evaluateFieldProblem(problem), { potential: block.trees.potential, mass: null, trial: block.trees.trial, basis: null }, mass);
+  // Systems are found among blocks of one coordinate; sampling a field's Hamiltonian is left for later.
+  return guarded(spec, () => evaluateFieldProblem(problem), { potential: block.trees.potential, mass: null, trial: block.trees.trial, basis: null }, mass, null);
 }
 
 /** What every engine problem takes from the spec besides its space, potential and trial. */
@@ -94,7 +102,13 @@ function shared(spec: BlockSpec): Pick<ProblemBase, 'parameters' | 'reference' |
     parameters: spec.varied,
     reference: {
       solve: spec.reference.solve,
-      published: spec.reference.energy ? { ...spec.reference.energy, source: spec.reference.source ?? '' } : null,
+      published: spec.reference.energy
+        ? {
+            ...spec.reference.energy,
+            source: spec.reference.source ?? '',
+            toleranceBasis: spec.reference.toleranceGiven ? 'as reference.tolerance gives it' : 'one unit in its last written digit, since published tables are often truncated; set reference.tolerance to change it',
+          }
+        : null,
     },
     claim: spec.claim,
     plots: spec.report.plots,
@@ -104,9 +118,9 @@ function shared(spec: BlockSpec): Pick<ProblemBase, 'parameters' | 'reference' |
 }
 
 /** The evaluation, with an exception (a bug, never bad input) turned into an invalid block. */
-function guarded(spec: BlockSpec, run: () => EngineResult, trees: Extract<Evaluated, { ok: true }>['trees'], mass: number): Evaluated {
+function guarded(spec: BlockSpec, run: () => EngineResult, trees: Extract<Evaluated, { ok: true }>['trees'], mass: number, hamiltonian: Hamiltonian | null): Evaluated {
   try {
-    return { ok: true, engine: run(), trees, mass };
+    return { ok: true, engine: run(), trees, mass, hamiltonian };
   } catch (error) {
     const reason = error instanceof Error ? error.message : String(error);
     return { ok: false, problems: [{ line: spec.line, field: null, message: `the evaluation failed: ${reason}` }] };
@@ -169,7 +183,7 @@ function toBlockResult(file: string, spec: BlockSpec, inputs: BlockInputs, engin
     claim: spec.claim
       ? { energy: spec.claim.energy?.value ?? null, tolerance: spec.claim.energy?.tolerance ?? null, parameters: spec.claim.parameters }
       : null,
-    checks: engine.checks.map(({ name, pass, detail }) => ({ name, pass, detail })),
+    checks: engine.checks.map(({ name, pass, detail, measure }) => (measure ? { name, pass, detail, measure } : { name, pass, detail })),
     plots: engine.plots,
     diagnostics: {
       energyError: engine.energyError,
@@ -203,6 +217,7 @@ function toBlockResult(file: string, spec: BlockSpec, inputs: BlockInputs, engin
       referenceMs: engine.timings.referenceMs,
     },
     quantity: null,
+    hamiltonian: null,
     inputHash: hash,
     timeMs: performance.now() - started,
   };

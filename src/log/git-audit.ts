@@ -23,3 +23,13 @@ export function lastCommit(file: string): LastCommit | null {
     return null;
   }
 }
+
+/** The commit a folder's checkout is at, and whether its work tree has changes; null outside git. */
+export function headCommit(folder: string): { hash: string; modified: boolean } | null {
+  const run = (args: string[]) => execFileSync('git', args, { cwd: folder, encoding: 'utf8', stdio: ['ignore', 'pipe', 'ignore'], timeout: 10_000 }).trim();
+  try {
+    return { hash: run(['rev-parse', 'HEAD']), modified: run(['status', '--porcelain']) !== '' };
+  } catch {
+    return null;
+  }
+}

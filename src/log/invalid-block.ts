@@ -34,6 +34,7 @@ export function invalidBlock(id: string, line: number, caption: string | null, p
     plots: null,
     diagnostics: null,
     quantity: null,
+    hamiltonian: null,
     inputHash: hash,
     timeMs: performance.now() - started,
   };

@@ -16,6 +16,8 @@ export interface LogConfig {
   workers: number;
   /** Absolute path of the results cache folder. */
   cacheFolder: string;
+  /** How many commits back a record's history goes (the newest that changed it). */
+  historyDepth: number;
 }
 
 /** Defaults, written once and used by code, docs and tests alike. */
@@ -23,6 +25,7 @@ export const DEFAULTS = {
   timeLimitSeconds: 60,
   memoryLimitMb: 512,
   cacheFolder: '.groundwork-cache',
+  historyDepth: 20,
 } as const;
 
 const overrides = z
@@ -31,6 +34,7 @@ const overrides = z
     memoryLimitMb: z.number({ invalid_type_error: 'must be a number of megabytes' }).int('must be a whole number of megabytes').min(64, 'must be at least 64 MB (the evaluator itself needs that much)'),
     workers: z.number({ invalid_type_error: 'must be a number' }).int('must be a whole number').min(1, 'must be at least 1'),
     cacheFolder: z.string({ invalid_type_error: 'must be a folder path written as text' }).min(1, 'must not be empty'),
+    historyDepth: z.number({ invalid_type_error: 'must be a number of commits' }).int('must be a whole number of commits').min(0, 'must be 0 (no history) or more'),
   })
   .partial()
   .strict();
@@ -82,6 +86,7 @@ export function loadLogConfig(root: string): LogConfig {
     memoryLimitMb: set.memoryLimitMb ?? DEFAULTS.memoryLimitMb,
     workers: set.workers ?? os.availableParallelism(),
     cacheFolder: resolve(root, set.cacheFolder ?? DEFAULTS.cacheFolder),
+    historyDepth: set.historyDepth ?? DEFAULTS.historyDepth,
   };
 }
 

@@ -2,6 +2,7 @@ import type { BasisDiagnostics } from '../engine/evaluate-problem.ts';
 import type { PlotData } from '../engine/plot-data.ts';
 import type { Check, Status } from '../engine/status.ts';
 import type { FrontMatter, QuantityMode, Space, SpecProblem } from '../spec/types.ts';
+import type { Verdict } from './block-verdict.ts';
 
 /** The machine-readable result of RECORD-FORMAT.md: what `groundwork check --json` prints and the pages render. */
 
@@ -38,6 +39,23 @@ export interface BlockInputs {
   /** Quantity mode only: the unit each declared constant is stated in (as written, else coherent SI; null for a pure number). */
   constantUnits?: Record<string, string | null>;
   ranges: Array<{ name: string; start: number; min: number; max: number }>;
+}
+
+/**
+ * The block's Hamiltonian as the systems view compares it (src/log/systems.ts): potential and mass sampled at
+ * samplePoints(space, box), fixed points in bohr, null where not finite. Like every figure of a result, the walls
+ * and the potential are stated in the block's units (`quantity`); the mass in electron masses.
+ */
+export interface Hamiltonian {
+  space: string;
+  /** The walls, or null. */
+  box: [number, number] | null;
+  angularMomentum: number;
+  /** The name the block's `system:` field gives, or null. */
+  system: string | null;
+  potential: Array<number | null>;
+  /** Electron masses. */
+  mass: Array<number | null>;
 }
 
 export interface BlockResult {
@@ -92,8 +110,12 @@ export interface BlockResult {
   } | null;
   /** Quantity mode: the units the numbers above are stated in and the physical constants behind them; null in atomic units. */
   quantity: QuantityMode | null;
+  /** What the block's Hamiltonian is, for finding the other blocks on the same system; null when its expressions did not compile. */
+  hamiltonian: Hamiltonian | null;
   inputHash: string;
   timeMs: number;
+  /** The reviewer's summary derived from the fields above (block-verdict.ts); present in JSON output, not in the cache. */
+  verdict?: Verdict;
 }
 
 export interface RecordResult {

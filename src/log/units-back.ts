@@ -59,6 +59,11 @@ export function inBlockUnits(result: BlockResult, units: QuantityMode): BlockRes
       ranges: inputs.ranges.map((r) => ({ name: r.name, start: parameter(r.name, r.start), min: parameter(r.name, r.min), max: parameter(r.name, r.max) })),
     },
     energy: result.energy && { value: energy(result.energy.value), unit: units.energy.unit },
+    hamiltonian: result.hamiltonian && {
+      ...result.hamiltonian,
+      box: result.hamiltonian.box && [result.hamiltonian.box[0] * L, result.hamiltonian.box[1] * L],
+      potential: result.hamiltonian.potential.map((v) => (v === null ? null : energy(v))),
+    },
     parameters: Object.fromEntries(
       Object.entries(result.parameters).map(([name, p]) => [name, { ...p, value: parameter(name, p.value), unit: s.parameter(name).unit }]),
     ),
@@ -81,6 +86,13 @@ export function inBlockUnits(result: BlockResult, units: QuantityMode): BlockRes
       lower: maybe(result.bounds.lower),
       weinstein: result.bounds.weinstein && [energy(result.bounds.weinstein[0]), energy(result.bounds.weinstein[1])],
     },
+    // The numbers beside a check's words are stated in the same units as the words.
+    checks: result.checks.map((c) => {
+      if (!c.measure || c.measure.quantity === 'ratio') return c;
+      const q = c.measure.quantity;
+      const scale = q === 'energy' ? E : s.parameter(q.parameter).perAtomic;
+      return { ...c, measure: { ...c.measure, value: c.measure.value * scale, limit: c.measure.limit * scale } };
+    }),
     claim: claim && {
       energy: maybe(claim.energy),
       tolerance: maybe(claim.tolerance),

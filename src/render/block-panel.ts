@@ -1,43 +1,60 @@
 import katex from 'katex';
 import type { LastCommit } from '../log/git-audit.ts';
 import type { Provenance } from '../log/provenance.ts';
+import { eckartOverlapFloor } from '../engine/bounds.ts';
 import { describeLevel } from '../engine/parity.ts';
+import { symbolTex } from '../expr/symbol-tex.ts';
+import { blockVerdict, numericFloor, type Verdict } from '../log/block-verdict.ts';
 import type { BlockInputs, BlockResult } from '../log/result-types.ts';
-import { escapeHtml, formatNumber } from './html.ts';
-import { renderPlots } from './plots.ts';
+import { escapeHtml, formatAt, formatNearOne, formatNumber, MINUS, texNumber, typesetMessage, typesetUnit } from './html.ts';
+import { renderBlockPlots } from './field-plots.ts';
+import { renderSystemLink, type SystemLink } from './review-html.ts';
 
 const tex = (source: string, display = false) => katex.renderToString(source, { displayMode: display, throwOnError: false, output: 'htmlAndMathml' });
 
-const STATUS_WORDS: Record<BlockResult['status'], string> = {
-  confirmed: 'confirmed',
-  disputed: 'disputed: the claim disagrees',
-  'below-reference': 'below the reference',
-  unsettled: 'unsettled',
-  invalid: 'invalid',
+/** Each status has a word and a shape of its own, so it reads in print and without colour. */
+export const STATUS_LOOK: Record<BlockResult['status'], { word: string; shape: string }> = {
+  confirmed: { word: 'confirmed', shape: '●' },
+  disputed: { word: 'disputed', shape: '▲' },
+  'below-reference': { word: 'below reference', shape: '▼' },
+  unsettled: { word: 'unsettled', shape: '◐' },
+  invalid: { word: 'invalid', shape: '✕' },
 };
+
+/** A status badge: shape and word; the shape is decoration, the word is what is read out. */
+export function statusBadge(status: BlockResult['status']): string {
+  const look = STATUS_LOOK[status];
+  return `<span class="gw-status gw-status-${status}"><span class="gw-shape" aria-hidden="true">${look.shape}</span> ${look.word}</span>`;
+}
 
 /** What a panel's audit trail says about where the block came from and what computed it. */
 export interface PanelContext {
   file: string;
   git: LastCommit | null;
   provenance: Provenance;
+  /** The system a block belongs to across the log, when it shares one with other blocks. */
+  systemOf?: (blockId: string) => SystemLink | null;
 }
 
 /** The result panel that stands in a record's page where its spec block was written. */
 export function renderBlockPanel(result: BlockResult, context: PanelContext): string {
+  const id = escapeHtml(result.id);
+  const verdict = blockVerdict(result);
   const parts = [
-    `<section class="gw-panel gw-${result.status}" id="block-${escapeHtml(result.id)}" data-status="${result.status}">`,
-    `<header><span class="gw-status">${escapeHtml(STATUS_WORDS[result.status])}</span> <code>${escapeHtml(result.id)}</code>${result.caption ? ` <span class="gw-caption">${escapeHtml(result.caption)}</span>` : ''}</header>`,
+    `<section class="gw-panel gw-${result.status}" id="block-${id}" data-status="${result.status}" aria-labelledby="block-${id}-heading">`,
+    `<header><h2 id="block-${id}-heading"><span class="gw-caption">${escapeHtml(result.caption ?? `Block ${result.id}`)}</span> <a class="gw-self" href="#block-${id}" title="link to this block"><code>${id}</code></a></h2></header>`,
+    renderVerdict(result, verdict),
   ];
-  if (result.message) parts.push(`<p class="gw-message">${escapeHtml(result.message)}</p>`);
+  const system = context.systemOf?.(result.id);
+  if (system) parts.push(renderSystemLink(system));
   if (result.problems.length > 0) {
     parts.push('<ul class="gw-problems">');
     for (const p of result.problems) parts.push(`<li><code>${escapeHtml(p.file)}:${p.line}</code> ${p.field ? `<code>${escapeHtml(p.field)}</code>: ` : ''}${escapeHtml(p.message)}</li>`);
     parts.push('</ul>');
   }
   if (result.inputs) parts.push(renderInputs(result));
-  if (result.energy) parts.push(renderResults(result));
-  const plots = renderPlots(result, {
+  if (result.energy) parts.push(renderResults(result, verdict));
+  const plots = renderBlockPlots(result, {
     energy: result.energy?.unit ?? 'hartree',
     length: result.inputs?.lengthUnit ?? 'bohr',
     parameters: Object.fromEntries(Object.entries(result.parameters).map(([name, p]) => [name, p.unit])),
@@ -51,6 +68,39 @@ export function renderBlockPanel(result: BlockResult, context: PanelContext): st
   return parts.join('\n');
 }
 
+/** An energy at the resolution that matters for this block, with its unit. */
+function energyText(value: number | null | undefined, verdict: Verdict, unit: string): string {
+  const text = verdict.resolution ? formatAt(value, verdict.resolution) : formatNumber(value);
+  return `${text}${unit ? `\u00a0${escapeHtml(unit)}` : ''}`;
+}
+
+const signed = (text: string) => (text.startsWith(MINUS) || text === '0' ? text : `+${text}`);
+
+/** The verdict line: status and reason, E, the gap to the reference, the bracket, the claim and the checks, in that order. */
+function renderVerdict(result: BlockResult, verdict: Verdict): string {
+  const unit = result.energy?.unit ?? '';
+  const items = [`<li class="gw-v-status">${statusBadge(result.status)} <span class="gw-reason">${escapeHtml(typesetMessage(verdict.reason))}</span></li>`];
+  if (result.energy) items.push(`<li><span class="gw-v-label">E</span> <span class="gw-num">${energyText(result.energy.value, verdict, unit)}</span></li>`);
+  if (verdict.gap) {
+    const relative = verdict.gap.relative === null ? '' : ` (${signed(formatNumber(100 * verdict.gap.relative, 2))}\u00a0%)`;
+    // A gap below what the numerics can resolve is zero within that resolution, not a figure to read.
+    const gap = !verdict.gap.resolved ? `0 within ${formatNumber(numericFloor(result), 1)}${unit ? `\u00a0${escapeHtml(unit)}` : ''}` : `${signed(energyText(verdict.gap.absolute, { ...verdict, resolution: Math.abs(verdict.gap.absolute) / 100 }, unit))}${relative}`;
+    items.push(`<li><span class="gw-v-label">E ${MINUS} E<sub>ref</sub></span> <span class="gw-num">${gap}</span> <span class="gw-quiet">against the ${verdict.gap.method === 'grid' ? 'grid' : 'published value'}</span></li>`);
+  } else if (result.energy) items.push(`<li class="gw-quiet">no reference to compare with</li>`);
+  if (verdict.bracket) {
+    const b = verdict.bracket;
+    items.push(`<li><span class="gw-v-label">bracket</span> <span class="gw-num">[${formatNumber(b.lower, 6)}, ${formatNumber(b.upper, 6)}]</span>, width <span class="gw-num">${formatNumber(b.width, 2)}${unit ? `\u00a0${escapeHtml(unit)}` : ''}</span> <span class="gw-quiet">(lower end: ${b.lowerFrom})</span></li>`);
+  }
+  if (verdict.claim) {
+    const c = verdict.claim;
+    items.push(`<li><span class="gw-v-label">claim</span> <span class="gw-num">${formatNumber(c.energy)} ± ${formatNumber(c.tolerance, 3)}</span> ${c.agrees ? 'agrees' : '<strong>disagrees</strong>'}, off by <span class="gw-num">${formatNumber(Math.abs(c.difference), 3)}${unit ? `\u00a0${escapeHtml(unit)}` : ''}</span></li>`);
+  } else if (result.claim && Object.keys(result.claim.parameters).length > 0) items.push(`<li>claim on parameters only (see the checks)</li>`);
+  // A confirmed block's reason already says it made no claim.
+  else if (result.energy && result.status !== 'confirmed') items.push(`<li class="gw-quiet">no claim made</li>`);
+  if (verdict.checks.total > 0) items.push(`<li><span class="gw-num">${verdict.checks.passed}/${verdict.checks.total}</span> checks pass</li>`);
+  return `<ul class="gw-verdict" aria-label="verdict">${items.join('')}</ul>`;
+}
+
 function renderInputs(result: BlockResult): string {
   const inputs = result.inputs!;
   const q = inputs.coordinate;
@@ -62,17 +112,17 @@ function renderInputs(result: BlockResult): string {
     ? Object.entries(inputs.masses).map(([c, m]) => `m_{${coordinateTex(c)}} = ${m}`).join(', ')
     : inputs.massTex === null ? `m = ${result.quantity ? `${inputs.mass}\\,m_e` : `${inputs.mass}`}` : `m(${q}) = ${inputs.massTex}`;
   const rows = [
-    `<div>${tex(`H = ${kinetic} + ${inputs.potentialTex}, \\quad ${where}, \\quad ${massTex}`, true)}</div>`,
+    `<div>${tex(`H = ${kinetic} ${/^\s*-/.test(inputs.potentialTex) ? '' : '+'} ${inputs.potentialTex}, \\quad ${where}, \\quad ${massTex}`, true)}</div>`,
     inputs.trialTex !== null
       ? `<div>${tex(`${stateTex(inputs)} = ${inputs.trialTex}`, true)}</div>`
-      : `<div>Basis (linear variational method, ${result.states.length} level${result.states.length === 1 ? '' : 's'} reported):${tex(`${stateTex(inputs)} = \\sum_i c_i \\phi_i(${inputs.coordinates.map(coordinateTex).join(', ')})`, true)}<ol start="0" class="gw-basis">${(inputs.basisTex ?? []).map((b) => `<li>${tex(`\\phi = ${b}`)}</li>`).join('')}</ol></div>`,
+      : `<div>Basis (linear variational method, ${result.states.length} level${result.states.length === 1 ? '' : 's'} reported):${tex(`${stateTex(inputs)} = \\sum_i c_i \\phi_i(${inputs.coordinates.map(coordinateTex).join(', ')})`, true)}<ul class="gw-basis">${(inputs.basisTex ?? []).map((b, i) => `<li>${tex(`\\phi_{${i}} = ${b}`)}</li>`).join('')}</ul></div>`,
   ];
   // Units stay outside the math: they are written as mathjs spells them (nm^-1), not as TeX.
   // From the block's units rather than the results, so an invalid block's ranges keep theirs too.
-  const unitOf = (name: string) => (result.quantity?.parameters[name]?.unit ? ` ${escapeHtml(result.quantity.parameters[name].unit!)}` : '');
-  const ranges = inputs.ranges.map((r) => `${tex(`${r.name} \\in [${formatNumber(r.min, 8)}, ${formatNumber(r.max, 8)}]`)}${unitOf(r.name)}, start ${formatNumber(r.start, 8)}${unitOf(r.name)}`).join('; ');
-  const constantUnit = (name: string) => (inputs.constantUnits?.[name] ? ` ${escapeHtml(inputs.constantUnits[name]!)}` : '');
-  const constants = Object.entries(inputs.constants).map(([k, v]) => `${tex(`${k} = ${formatNumber(v, 10)}`)}${constantUnit(k)}`).join(', ');
+  const unitOf = (name: string) => (result.quantity?.parameters[name]?.unit ? `\u00a0${escapeHtml(typesetUnit(result.quantity.parameters[name].unit!))}` : '');
+  const ranges = inputs.ranges.map((r) => `${tex(`${symbolTex(r.name)} \\in [${texNumber(r.min, 8)}, ${texNumber(r.max, 8)}]`)}${unitOf(r.name)}, start ${formatNumber(r.start, 8)}${unitOf(r.name)}`).join('; ');
+  const constantUnit = (name: string) => (inputs.constantUnits?.[name] ? `\u00a0${escapeHtml(typesetUnit(inputs.constantUnits[name]!))}` : '');
+  const constants = Object.entries(inputs.constants).map(([k, v]) => `${tex(`${symbolTex(k)} = ${texNumber(v, 10)}`)}${constantUnit(k)}`).join(', ');
   if (ranges) rows.push(`<p>Varied: ${ranges}</p>`);
   if (constants) rows.push(`<p>Constants: ${constants}</p>`);
   return `<div class="gw-inputs">${rows.join('\n')}</div>`;
@@ -110,7 +160,7 @@ function stateTex(inputs: BlockInputs): string {
 function whereTex(inputs: BlockInputs, lengthUnit: string): string {
   const space = inputs.space;
   const q = inputs.coordinate;
-  if (inputs.box) return `${q} \\in [${formatNumber(inputs.box[0], 10)}, ${formatNumber(inputs.box[1], 10)}]${lengthUnit}`;
+  if (inputs.box) return `${q} \\in [${texNumber(inputs.box[0], 10)}, ${texNumber(inputs.box[1], 10)}]${lengthUnit}`;
   if (space === 'axial') return '\\rho \\ge 0,\\ z \\in \\mathbb{R}';
   if (typeof space === 'object') {
     return Object.entries(space)
@@ -129,44 +179,64 @@ function profileKinetic(inputs: BlockInputs): string {
     : `-\\frac{\\hbar^2}{2}\\frac{d}{d${q}}\\frac{1}{m(${q})}\\frac{d}{d${q}}`;
 }
 
-function renderResults(result: BlockResult): string {
+function renderResults(result: BlockResult, verdict: Verdict): string {
   const unit = result.energy!.unit ?? '';
-  const row = (label: string, value: string) => `<tr><th scope="row">${label}</th><td>${value}</td></tr>`;
+  const u = unit ? `\u00a0${escapeHtml(unit)}` : '';
+  const E = result.energy!.value;
+  const at = (v: number | null | undefined) => energyText(v, verdict, unit);
+  const row = (label: string, value: string, quiet = false) => `<tr${quiet ? ' class="gw-quiet"' : ''}><th scope="row">${label}</th><td class="gw-num">${value}</td></tr>`;
+  /** A row that does not apply to this block says why, in a quieter style. */
+  const not = (label: string, why: string) => `<tr class="gw-quiet"><th scope="row">${label}</th><td>${escapeHtml(why)}</td></tr>`;
+  const ref = result.reference;
+  // The next level above E0 or, when there is none bound, the continuum threshold: a lower bound to it either way.
+  const next = ref?.excited ?? ref?.threshold ?? null;
   const rows = [
-    ...Object.entries(result.parameters).map(([name, p]) => row(`${tex(name)} ${p.varied ? 'at the optimum' : '(fixed)'}`, `${formatNumber(p.value)}${p.unit ? ` ${escapeHtml(p.unit)}` : ''}`)),
-    row(tex('\\langle T\\rangle'), formatNumber(result.components?.kinetic)),
-    row(tex('\\langle V\\rangle'), formatNumber(result.components?.potential)),
-    row(`${tex('E = \\langle H\\rangle')} (upper bound)`, `<strong>${formatNumber(result.energy!.value)}</strong> ${unit}`),
-    row('variance', result.variance === null ? escapeHtml(result.varianceNote ?? '—') : formatNumber(result.variance, 4)),
-    row("Temple's lower bound", formatNumber(result.bounds.lower)),
-    row("Weinstein's interval", result.bounds.weinstein ? `[${formatNumber(result.bounds.weinstein[0])}, ${formatNumber(result.bounds.weinstein[1])}]` : '—'),
+    ...Object.entries(result.parameters).map(([name, p]) => row(`${tex(symbolTex(name))} ${p.varied ? 'at the optimum' : '(fixed)'}`, `${formatNumber(p.value, 8)}${p.unit ? `\u00a0${escapeHtml(typesetUnit(p.unit))}` : ''}`)),
+    row(`kinetic energy ${tex('\\langle T\\rangle')}`, at(result.components?.kinetic)),
+    row(`potential energy ${tex('\\langle V\\rangle')}`, at(result.components?.potential)),
+    row(`${tex('E = \\langle H\\rangle')} (upper bound)`, `<strong>${at(E)}</strong>`),
   ];
+  if (result.variance === null) rows.push(not('variance', `not available: ${result.varianceNote ?? 'not computed for this block'}`));
+  else rows.push(row(`variance ${tex('\\sigma^2 = \\langle H^2\\rangle - E^2')}`, `${formatNumber(result.variance, 3)}${unit ? `\u00a0${escapeHtml(unit)}²` : ''}; ${tex('\\sigma')} = ${formatNumber(Math.sqrt(Math.max(result.variance, 0)), 3)}${u}`));
+  // Temple's bound needs the variance and a next level above E; Weinstein's needs the variance.
+  const temple = result.bounds.lower;
+  if (temple !== null) {
+    const weak = result.bounds.weinstein && temple < result.bounds.weinstein[0];
+    rows.push(row("Temple's lower bound", `${at(temple)}${weak ? ' <span class="gw-quiet">(not informative: below the lower end of Weinstein\'s interval)</span>' : ''}`));
+  } else rows.push(not("Temple's lower bound", result.variance === null ? 'not applicable: no variance' : next === null ? 'not applicable: no next level known' : `not applicable: E is above the next level E1 = ${formatNumber(next, 6)}`));
+  if (result.bounds.weinstein) rows.push(row("Weinstein's interval", `[${at(result.bounds.weinstein[0])}, ${at(result.bounds.weinstein[1])}] <span class="gw-quiet">(holds at least one level)</span>`));
+  else rows.push(not("Weinstein's interval", 'not applicable: no variance'));
+  if (verdict.bracket) rows.push(row('best lower bound', `${at(verdict.bracket.lower)} <span class="gw-quiet">(${verdict.bracket.lowerFrom})</span>`));
   // Which level the reference stands for, when it is not the ground level (a declared or an odd trial's symmetry, a level index).
-  const level = result.reference && (result.reference.level.symmetry !== null || result.reference.level.index > 0) ? describeLevel(result.reference.level) : null;
-  if (result.reference) {
-    const next = level && result.reference.level.symmetry ? `next ${result.reference.level.symmetry} level` : 'next level';
-    rows.push(row(`reference (${result.reference.method}${level ? `, ${level}` : ''})`, `${formatNumber(result.reference.energy)}${result.reference.excited !== null ? `; ${next} ${formatNumber(result.reference.excited)}` : ''}`));
-    if (result.reference.published) rows.push(row('published', `${formatNumber(result.reference.published.energy)} — ${escapeHtml(result.reference.published.source)}`));
+  const level = ref && (ref.level.symmetry !== null || ref.level.index > 0) ? describeLevel(ref.level) : null;
+  if (ref) {
+    const nextName = level && ref.level.symmetry ? `next ${ref.level.symmetry} level` : 'next level';
+    rows.push(row(`reference (${ref.method}${level ? `, ${level}` : ''})`, `${at(ref.energy)}${ref.excited !== null ? `; ${nextName} ${at(ref.excited)}` : ''}`));
+    if (ref.published) rows.push(row('published', `${formatNumber(ref.published.energy)}${u} — ${escapeHtml(ref.published.source)}`));
   }
   if (result.states.length > 1) {
     result.states.forEach((state, k) => {
       const error = state.reference === null ? '' : `; grid ${formatNumber(state.reference)} (relative error ${formatNumber((state.energy - state.reference) / Math.abs(state.reference), 3)})`;
-      rows.push(row(`level ${tex(`E_{${k}}`)} (upper bound)`, `${formatNumber(state.energy)}${error}`));
+      rows.push(row(`level ${tex(`E_{${k}}`)} (upper bound)`, `${formatNumber(state.energy)}${u}${error}`));
     });
   }
-  if (result.basis) rows.push(row('overlap matrix', `${result.basis.functions} functions, ${result.basis.kept} kept; ${escapeHtml(result.basis.conditioning)}`));
+  if (result.basis) rows.push(row('overlap matrix', `${result.basis.functions} functions, ${result.basis.kept} kept; ${escapeHtml(typesetMessage(result.basis.conditioning))}`));
   if (result.errors.vsGrid !== null) rows.push(row(`relative error against the grid${level ? ` (${level})` : ''}`, formatNumber(result.errors.vsGrid, 3)));
   if (result.errors.vsPublished !== null) rows.push(row('relative error against the published value', formatNumber(result.errors.vsPublished, 3)));
-  if (result.overlap !== null) rows.push(row(`overlap with the grid ${level ? `state of the ${level}` : 'ground state'}`, formatNumber(result.overlap, 8)));
-  if (result.virial) rows.push(row(`virial ratio ${tex(`2\\langle T\\rangle / (${result.virial.exponent}\\langle V\\rangle)`)}`, formatNumber(result.virial.ratio, 8)));
-  else if (result.virialNote) rows.push(row('virial ratio', escapeHtml(result.virialNote)));
-  if (result.claim?.energy !== null && result.claim) rows.push(row('claimed energy', `${formatNumber(result.claim.energy)} ± ${formatNumber(result.claim.tolerance, 3)}`));
+  if (result.overlap !== null) rows.push(row(`overlap with the grid ${level ? `state of the ${level}` : 'ground state'} ${tex('|\\langle\\psi|\\psi_0\\rangle|^2')}`, formatNearOne(result.overlap)));
+  // Eckart's floor on that overlap, from the same E, E0 and E1 the checks use.
+  const floor = ref?.energy !== null && ref?.energy !== undefined && (!level) ? eckartOverlapFloor(E, ref.energy, next) : null;
+  if (floor !== null) rows.push(row("Eckart's overlap floor", floor <= 0 ? `${formatNumber(floor, 3)} <span class="gw-quiet">(not informative: E is too far above E0)</span>` : formatNearOne(floor)));
+  else rows.push(not("Eckart's overlap floor", level ? `not applicable: only for the ground level` : 'not applicable: no next level known'));
+  if (result.virial) rows.push(row(`virial ratio ${tex(`2\\langle T\\rangle / (${result.virial.exponent === 1 ? '' : result.virial.exponent === -1 ? '-' : result.virial.exponent}\\langle V\\rangle)`)}`, formatNearOne(result.virial.ratio)));
+  else rows.push(not('virial ratio', `not applicable: ${result.virialNote ?? 'the potential is not a power law'}`));
   return `<table class="gw-results"><caption>Recomputed values (${escapeHtml(unit)}); model estimates, not a substitute for the group's validated procedures</caption><tbody>${rows.join('')}</tbody></table>`;
 }
 
 function renderChecks(result: BlockResult): string {
-  const items = result.checks.map((c) => `<li class="${c.pass ? 'gw-pass' : 'gw-fail'}"><span class="gw-mark">${c.pass ? 'pass' : 'FAIL'}</span> <code>${escapeHtml(c.name)}</code> ${escapeHtml(c.detail)}</li>`);
-  return `<ul class="gw-checks">${items.join('')}</ul>`;
+  const items = result.checks.map((c) => `<li class="${c.pass ? 'gw-pass' : 'gw-fail'}"><span class="gw-mark">${c.pass ? '✓ pass' : '✗ FAIL'}</span> <code>${escapeHtml(c.name)}</code> ${escapeHtml(typesetMessage(c.detail))}</li>`);
+  const passed = result.checks.filter((c) => c.pass).length;
+  return `<div class="gw-checks-box"><h3 class="gw-sub">Checks: ${passed} of ${result.checks.length} pass</h3><ul class="gw-checks">${items.join('')}</ul></div>`;
 }
 
 function renderAudit(result: BlockResult, context: PanelContext): string {

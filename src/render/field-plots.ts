@@ -1,9 +1,8 @@
 import * as Plot from '@observablehq/plot';
 import type { FieldDensity } from '../engine/field-plot-data.ts';
 import type { BlockResult } from '../log/result-types.ts';
-import { densityPlot } from './density-plot.ts';
 import { formatNumber } from './html.ts';
-import { draw, INK, MARGIN, WIDTH, type PlotUnits } from './plot-frame.ts';
+import { densityPlot, draw, HALO, INK, MARGIN, renderPlots, WIDTH, type PlotUnits } from './plots.ts';
 
 /** Contour levels as fractions of the density's peak in the picture. */
 const LEVELS = [0.05, 0.2, 0.4, 0.6, 0.8];
@@ -11,6 +10,12 @@ const LEVELS = [0.05, 0.2, 0.4, 0.6, 0.8];
 const GREYS = ['#ffffff', '#ececec', '#cfcfcf', '#a9a9a9', '#7f7f7f', '#565656'];
 /** Plot height range for the picture; within it the two lengths share one scale. */
 const PICTURE_HEIGHT = { min: 180, max: 430 };
+
+/** Every plot of a block: those of one coordinate, then on spaces of several the density picture and its cuts. */
+export function renderBlockPlots(result: BlockResult, units: PlotUnits): string[] {
+  const field = result.plots?.field;
+  return [...renderPlots(result, units), ...(field && result.energy !== null ? fieldPlots(field, result, units) : [])];
+}
 
 /** The density in a plane (grey bands, labelled contours, a legend in density units) and one cut along every axis. */
 export function fieldPlots(field: FieldDensity, result: BlockResult, units: PlotUnits): string[] {
@@ -44,7 +49,7 @@ function picture(field: FieldDensity, units: PlotUnits): string {
     ...(['row', 'column'] as const).map((line) =>
       Plot.text(
         levelLabels(field, levels).filter((l) => l.line === line),
-        { x: 'x', y: 'y', text: 'label', fill: INK, stroke: 'white', strokeWidth: 3, paintOrder: 'stroke', fontSize: 10, ...(line === 'column' ? { textAnchor: 'start', dx: 3 } : {}) },
+        { x: 'x', y: 'y', text: 'label', ...HALO, fontSize: 11, ...(line === 'column' ? { textAnchor: 'start', dx: 3 } : {}) },
       ),
     ),
   ];
@@ -61,7 +66,8 @@ function picture(field: FieldDensity, units: PlotUnits): string {
       color: { type: 'threshold', domain: levels, range: GREYS, legend: true, label: `trial density |ψ|² (${legendUnit.label}${perUnit})`, tickFormat: (d: number) => formatNumber(d / legendUnit.factor, 2) },
       marks,
     },
-    `Trial density |ψ|²${where}: grey bands between contour lines at ${LEVELS.map((f) => `${Math.round(100 * f)}`).join(', ')} % of its peak (labelled on the lines), darker is denser; the legend gives the levels in ${perUnit}. Dashed lines: the cuts that follow, crossing at the ${field.throughKind} (${crossing} ${units.length}).`,
+    `Trial density |ψ|²${where}, its cuts crossing at the ${field.throughKind} (${crossing} ${units.length}).`,
+    `Grey bands between contour lines at ${LEVELS.map((f) => `${Math.round(100 * f)}`).join(', ')} % of its peak (labelled on the lines), darker is denser; the legend gives the levels in ${perUnit}. Dashed lines: the cuts that follow.`,
   );
 }
 
@@ -101,8 +107,8 @@ function cuts(field: FieldDensity, result: BlockResult, units: PlotUnits): strin
     const reference = result.reference?.energy != null ? ' Dashed: reference ground energy.' : '';
     // With a grid the crossing point sits on the nearest grid line, so the grid's own nodes lie on the cut.
     const where = cut.grid.length > 0 ? `through the ${field.throughKind}, moved onto the nearest grid line (${others})` : `through the ${field.throughKind} (${others})`;
-    const caption = `Cut along ${cut.coordinate} ${where}. Thick grey: potential V. Shaded with line: trial density |ψ|² (per ${perUnit})${grid} scaled and drawn from the level E.${reference}`;
-    return densityPlot(cut, cut.coordinate, caption, result, units);
+    const encodings = `Cut along ${cut.coordinate} ${where}. Thick grey: potential V. Shaded with line: trial density |ψ|² (per ${perUnit})${grid} scaled and drawn from the level E.${reference}`;
+    return densityPlot(cut, result, units, encodings);
   });
 }
 

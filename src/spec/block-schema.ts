@@ -64,6 +64,7 @@ export const blockSchema = z
   .object({
     id: z.string({ required_error: 'every block needs an id', invalid_type_error: 'must be text' }).regex(/^[A-Za-z0-9][A-Za-z0-9_-]*$/, 'must be a slug: letters, digits, - and _'),
     caption: z.string().optional(),
+    system: z.string({ invalid_type_error: 'must be text: the name of the physical system, shared by the blocks about it' }).regex(/^[A-Za-z0-9][A-Za-z0-9_-]*$/, 'must be a slug: letters, digits, - and _').optional(),
     units: z.union([z.literal('atomic'), z.record(z.string())], { errorMap: () => ({ message: 'must be atomic or a map such as { length: nm, energy: meV }' }) }).optional(),
     space: z
       .union([z.enum(['line', 'half-line', 'radial', 'plane', 'axial']), z.record(name, coordinateRange)], {

@@ -139,6 +139,7 @@ function quantitySource(raw: RawBlock & { units: Record<string, string> }, line:
   return {
     id: raw.id,
     caption: raw.caption ?? null,
+    ...(raw.system !== undefined ? { system: raw.system } : {}),
     line,
     units: { entries: Object.fromEntries(Object.entries(raw.units).map(([k, v]) => [k, at(['units', k], v)])), line: lineOf(['units']) },
     space: raw.space ?? 'line',
@@ -287,6 +288,7 @@ function toSpec(raw: AtomicBlock, line: number, doc: Document, lineOf: (path: (s
   return {
     id: raw.id,
     caption: raw.caption ?? null,
+    ...(raw.system !== undefined ? { system: raw.system } : {}),
     line,
     units: 'atomic',
     space: raw.space ?? 'line',
@@ -302,6 +304,7 @@ function toSpec(raw: AtomicBlock, line: number, doc: Document, lineOf: (path: (s
       solve: raw.reference?.solve ?? true,
       energy: raw.reference?.energy === undefined ? null : claimed(['reference', 'energy'], raw.reference.energy, raw.reference.tolerance, 1),
       source: raw.reference?.source ?? null,
+      ...(raw.reference?.tolerance !== undefined ? { toleranceGiven: true as const } : {}),
     },
     claim: raw.claim
       ? { energy: raw.claim.energy === undefined ? null : claimed(['claim', 'energy'], raw.claim.energy, raw.claim.tolerance), parameters: claimParameters }

@@ -94,6 +94,8 @@ export interface DeclaredLevel {
 export interface BlockSpec {
   id: string;
   caption: string | null;
+  /** The system the block is about, when the author names it (`system:`); absent otherwise, so other blocks keep their input hash. */
+  system?: string;
   line: number;
   units: 'atomic';
   space: Space;
@@ -121,6 +123,8 @@ export interface BlockSpec {
     solve: boolean;
     energy: Claimed | null;
     source: string | null;
+    /** Set when the author wrote `reference.tolerance` (absent otherwise, so other blocks keep their input hash). */
+    toleranceGiven?: true;
   };
   claim: {
     energy: Claimed | null;

@@ -16,6 +16,7 @@ export type { QuantitySource } from './field-reader.ts';
 export interface QuantityBlockSource {
   id: string;
   caption: string | null;
+  system?: string;
   line: number;
   /** The `units` map as written ({ length: nm, energy: meV }), and the line of the field. */
   units: { entries: Record<string, QuantitySource>; line: number };
@@ -158,6 +159,7 @@ export function convertQuantityBlock(file: string, block: QuantityBlockSource): 
     solve: block.reference.solve,
     energy: block.reference.energy ? reader.claimed('reference.energy', block.reference.energy, toleranceOf('reference.tolerance', block.reference.tolerance), readEnergy, 1) : null,
     source: block.reference.source,
+    ...(block.reference.tolerance ? { toleranceGiven: true as const } : {}),
   };
   let claim: BlockSpec['claim'] = null;
   if (block.claim) {
@@ -194,6 +196,7 @@ export function convertQuantityBlock(file: string, block: QuantityBlockSource): 
     spec: {
       id: block.id,
       caption: block.caption,
+      ...(block.system !== undefined ? { system: block.system } : {}),
       line: block.line,
       units: 'atomic',
       space: block.space,

@@ -40,7 +40,7 @@ describe('groundwork check', () => {
     expect(cached.err).toMatch(/^groundwork: 1 block, 0 evaluated, 1 from cache \(/);
     const again = await run(['check', good, '--recompute']);
     expect(again.err).toMatch(/^groundwork: 1 block, 1 evaluated, 0 from cache \(/);
-    const untimed = (table: string) => table.replace(/\d+ ms/g, 'ms');
+    const untimed = (table: string) => table.replace(/ *(\d+ ms|cached)$/gm, ' time');
     expect(untimed(again.out)).toBe(untimed(cached.out));
   }, 60_000);
 
@@ -61,6 +61,11 @@ describe('groundwork check', () => {
     expect(block).toMatchObject({ id: 'osc', line: 8, status: 'confirmed', energy: { unit: 'hartree' }, reference: { method: 'grid' } });
     expect(block.inputHash).toMatch(/^sha256:[0-9a-f]{64}$/);
     expect(block.checks.every((c: { pass: boolean }) => c.pass)).toBe(true);
+    // The verdict says the same as the fields, so scripts need not parse details; plot samples only with --plots.
+    expect(block.verdict).toMatchObject({ status: 'confirmed', claim: { energy: 0.5, agrees: true }, checks: { passed: block.checks.length, total: block.checks.length } });
+    expect(block.plots).toBeNull();
+    const withPlots = JSON.parse((await run(['check', good, '--json', '--plots'])).out);
+    expect(withPlots.records[0].blocks[0].plots.scans.length).toBeGreaterThan(0);
   }, 60_000);
 
   it('refuses unknown options and missing paths with a clear message and exit code 2', async () => {
@@ -103,11 +108,18 @@ describe('groundwork check', () => {
     expect(out.split('\n').at(-1)).toBe('1 block: 1 confirmed; 1 record has problems of its own (listed above)');
   }, 60_000);
 
+  it('accepts --help after the command and checks nothing then', async () => {
+    const { code, out, err } = await run(['check', '--help']);
+    expect(code).toBe(0);
+    expect(out).toMatch(/^usage: groundwork check/m);
+    expect(err).toBe('');
+  });
+
   it('documents its exit codes in --help', async () => {
     const { code, out } = await run(['--help']);
     expect(code).toBe(0);
     expect(out).toMatch(/^ {2}1 {2}some block is not confirmed/m);
-    expect(out).toMatch(/^ {2}2 {2}the check could not run: a path that does not exist, no records or no blocks found/m);
+    expect(out).toMatch(/^ {2}2 {2}the command could not run: a path that does not exist, no records or no blocks found/m);
   });
 
   it('takes a block refused before any numerics from the cache on the next run too, so nothing unchanged is evaluated', async () => {

@@ -62,7 +62,9 @@ describe('checkLog: parallel and cached', () => {
       ['b.md', ['broken:invalid', 'h1s:confirmed']],
       ['c.md', ['h1s-again:confirmed']],
     ]);
-    expect(stats).toEqual({ blocks: 5, evaluated: 5, cached: 0, corrupt: 0, timedOut: 0, overMemory: 0, writeErrors: 0, workers: 2 });
+    const { fromCache, ...counts } = stats;
+    expect(counts).toEqual({ blocks: 5, evaluated: 5, cached: 0, corrupt: 0, timedOut: 0, overMemory: 0, writeErrors: 0, workers: 2 });
+    expect(fromCache.size).toBe(0);
     expect(cacheEntries(root)).toHaveLength(5);
   }, 120_000);
 
@@ -71,6 +73,9 @@ describe('checkLog: parallel and cached', () => {
     const cached = await checkLog(files, { root, config });
     expect(cold.stats).toMatchObject({ evaluated: 5, cached: 0 });
     expect(cached.stats).toMatchObject({ evaluated: 0, cached: 5, corrupt: 0 });
+    // The table marks exactly the blocks that came from the cache.
+    expect(cached.stats.fromCache.size).toBe(5);
+    for (const record of cached.log.records) for (const block of record.blocks) expect(cached.stats.fromCache.has(block)).toBe(true);
     expect(withoutTimings(cached.log)).toBe(withoutTimings(cold.log));
   }, 120_000);
 

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { evaluateBlock } from '../../src/log/evaluate-block.ts';
 import type { BlockResult } from '../../src/log/result-types.ts';
-import { renderPlots } from '../../src/render/plots.ts';
+import { renderBlockPlots as renderPlots } from '../../src/render/field-plots.ts';
 import { parseRecord } from '../../src/spec/parse-record.ts';
 
 // The plot data of a trial on a product space: the density picture and the cuts through the potential's minimum.
@@ -69,12 +69,13 @@ report: { plots: [scan, density] }`);
     // Two scans, the picture, two cuts.
     expect(svgs).toHaveLength(5);
     const picture = svgs[2];
-    expect(picture).toMatch(/<figcaption>Trial density \|ψ\|²: grey bands between contour lines at 5, 20, 40, 60, 80 % of its peak/);
+    expect(picture).toMatch(/<figcaption>Trial density \|ψ\|², its cuts crossing at the potential minimum \(x = 0, y = 0 bohr\)\. Grey bands between contour lines at 5, 20, 40, 60, 80 % of its peak/);
     expect(picture).toContain('trial density |ψ|² (bohr⁻²)');
-    expect(picture).toMatch(/aria-label="contour"><path d="M/);
+    // Each level is a filled contour path in its grey.
+    for (const grey of ["#ececec", "#565656"]) expect(picture).toMatch(new RegExp(`<g[^>]*fill="${grey}"[^>]*><path d="M`));
     for (const label of ['20%', '60%', '80%']) expect(picture).toContain(`>${label}<`);
-    expect(svgs[3]).toContain('<figcaption>Cut along x through the potential minimum (y = ');
-    expect(svgs[4]).toContain('<figcaption>Cut along y through the potential minimum (x = ');
+    expect(svgs[3]).toContain('Cut along x through the potential minimum (y = ');
+    expect(svgs[4]).toContain('Cut along y through the potential minimum (x = ');
     // No grid was asked for: the caption does not promise its circles or a reference line.
     expect(svgs[3]).toContain('trial density |ψ|² (per bohr⁻²), scaled and drawn from the level E.</figcaption>');
   });

@@ -28,12 +28,13 @@ describe('log configuration', () => {
       memoryLimitMb: DEFAULTS.memoryLimitMb,
       workers: os.availableParallelism(),
       cacheFolder: join(root, DEFAULTS.cacheFolder),
+      historyDepth: DEFAULTS.historyDepth,
     });
   });
 
   it('takes each field from groundwork.config.json, relative cache folders from the log root', () => {
-    const root = logRoot(JSON.stringify({ timeLimitSeconds: 2.5, memoryLimitMb: 256, workers: 3, cacheFolder: 'build/results' }));
-    expect(loadLogConfig(root)).toEqual({ timeLimitSeconds: 2.5, memoryLimitMb: 256, workers: 3, cacheFolder: join(root, 'build', 'results') });
+    const root = logRoot(JSON.stringify({ timeLimitSeconds: 2.5, memoryLimitMb: 256, workers: 3, cacheFolder: 'build/results', historyDepth: 5 }));
+    expect(loadLogConfig(root)).toEqual({ timeLimitSeconds: 2.5, memoryLimitMb: 256, workers: 3, cacheFolder: join(root, 'build', 'results'), historyDepth: 5 });
     expect(loadLogConfig(logRoot(JSON.stringify({ workers: 1 }))).timeLimitSeconds).toBe(DEFAULTS.timeLimitSeconds);
   });
 
@@ -48,7 +49,7 @@ describe('log configuration', () => {
   it('refuses unknown fields, JSON errors and non-objects', () => {
     const unknown = refusal(JSON.stringify({ worker: 2 }));
     expect(unknown.field).toBe('worker');
-    expect(unknown.message).toMatch(/unknown field \(known: timeLimitSeconds, memoryLimitMb, workers, cacheFolder\)/);
+    expect(unknown.message).toMatch(/unknown field \(known: timeLimitSeconds, memoryLimitMb, workers, cacheFolder, historyDepth\)/);
     expect(refusal('{ "workers": 2, }').message).toMatch(new RegExp(`${CONFIG_FILE}: is not valid JSON`));
     expect(refusal('[1, 2]').message).toMatch(/must be a JSON object of fields/);
   });

@@ -72,8 +72,8 @@ describe('a quantity-mode well states every length and energy in its own units',
   it('quotes no atomic-unit figure in the JSON or on the page', () => {
     expect(JSON.stringify(record)).not.toMatch(ATOMIC_FIGURES);
     expect(html).not.toMatch(ATOMIC_FIGURES);
-    expect(html).toContain('trial at the wall -5 nm');
-    expect(html).toMatch(/domain \[-5, 5\] nm/);
-    expect(html).toMatch(/Constants: .*<\/span> nm<\/p>/);
+    expect(html).toContain('trial at the wall \u22125 nm');
+    expect(html).toMatch(/domain \[\u2212 ?5, 5\] nm/);
+    expect(html).toMatch(/Constants: .*<\/span>\u00a0nm<\/p>/);
   });
 });

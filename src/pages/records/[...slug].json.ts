@@ -1,4 +1,5 @@
 import type { APIRoute } from 'astro';
+import { withVerdicts } from '../../log/block-verdict.ts';
 import { logEntries } from '../../site/log-entries.ts';
 
 export async function getStaticPaths() {
@@ -6,4 +7,4 @@ export async function getStaticPaths() {
 }
 
 /** The record's result as `groundwork check --json` gives it, next to its page. */
-export const GET: APIRoute = ({ props }) => new Response(JSON.stringify(props.result, null, 2), { headers: { 'Content-Type': 'application/json' } });
+export const GET: APIRoute = ({ props }) => new Response(JSON.stringify(withVerdicts({ tool: { name: 'groundwork', version: '' }, records: [props.result] }, { plots: true }).records[0], null, 2), { headers: { 'Content-Type': 'application/json' } });
