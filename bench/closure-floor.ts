@@ -14,6 +14,8 @@ const SAMPLES = 1024;
  * closure feedback as the engine's own calls.
  */
 export function closureNanoseconds(spec: BlockSpec, result: BlockResult): number | null {
+  // A trial of several coordinates is called at points, not at x: its floor would be a different measure.
+  if (typeof spec.space === 'object' || spec.space === 'axial') return null;
   const compiled = compileBlock(spec);
   if (!compiled.ok || !compiled.block.trial) return null;
   const { trial, potential } = compiled.block;

@@ -3,6 +3,7 @@ import { boundChecks, claimChecks, integralsCheck, optimiserChecks, referenceChe
 import { invalidResult, type EngineResult } from './evaluate-problem.ts';
 import { fieldExpectation, fieldVariance, placeField, searchFieldExpectation, type FieldExpectation } from './field-expectation.ts';
 import { fieldGridReference, productOverlap } from './field-grid-reference.ts';
+import { fieldPlotData } from './field-plot-data.ts';
 import { ATOMIC_DISPLAY, g } from './format.ts';
 import { minimizeBounded, type MinimizeResult } from './minimize.ts';
 import { GROUND_LEVEL } from './parity.ts';
@@ -67,6 +68,12 @@ export function evaluateFieldProblem(problem: FieldProblem): EngineResult {
   if (problem.claim) checks.push(...claimChecks(problem, energy, best));
 
   const { status, message } = statusOf(checks);
+  const timings = { variationalMs: performance.now() - started - referenceMs, referenceMs };
+  const scanAt = searchFieldExpectation(problem, optimum);
+  const plots = fieldPlotData(
+    { problem, optimum: best, energyAt: (p) => scanAt(p).energy, kinetic: optimum.kinetic, curvature: optimiser?.hessian ?? null, norm: optimum.norm, placement, grid: product },
+    problem.plots,
+  );
   return {
     status,
     message,
@@ -84,8 +91,8 @@ export function evaluateFieldProblem(problem: FieldProblem): EngineResult {
     optimiser,
     checks,
     counts: { ...counts, trialEvaluations: counts.trialEvaluations + variance.evaluations },
-    timings: { variationalMs: performance.now() - started - referenceMs, referenceMs },
-    plots: null,
+    timings,
+    plots,
     states: [{ energy, errorEstimate: optimum.errorEstimate, reference: grid?.levels[0] ?? null }],
     basis: null,
     level: GROUND_LEVEL,

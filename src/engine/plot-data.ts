@@ -1,5 +1,6 @@
 import type { GridLevels } from './grid-levels.ts';
-import type { ProblemBase, TrialFamily } from './problem.ts';
+import type { ParameterSpec, ProblemBase, TrialFamily } from './problem.ts';
+import type { FieldDensity } from './field-plot-data.ts';
 import type { CoordinateSpace } from './spaces/space.ts';
 
 /** E along one varied parameter with the others held at the optimum; null where the trial is unusable. */
@@ -12,6 +13,8 @@ export interface EnergyScan {
 /** Trial and grid densities (weight |psi|^2, the density in the coordinate: radial r^2 |R|^2) and the potential on a common window. */
 export interface DensityProfile {
   coordinate: 'x' | 'r';
+  /** On `plane` the density in r is r |R|^2 (volume element r dr), not the radial r^2 |R|^2. */
+  plane?: boolean;
   samples: Array<{ x: number; trial: number; potential: number | null }>;
   /** The grid state the trial is compared with (the ground state by default) at its own nodes inside the window (no interpolation). */
   grid: Array<{ x: number; density: number }>;
@@ -20,6 +23,8 @@ export interface DensityProfile {
 export interface PlotData {
   scans: EnergyScan[];
   density: DensityProfile | null;
+  /** Spaces of two or three coordinates: the density in a plane and cuts along each axis (absent on one coordinate). */
+  field?: FieldDensity | null;
   evaluations: number;
 }
 
@@ -44,8 +49,24 @@ export interface PlotInputs {
   gridLevel?: number;
 }
 
+/** What the energy scans need, on any space. */
+export interface ScanInputs {
+  problem: { parameters: ParameterSpec[]; trial: { setParameters(values: ArrayLike<number>): void } };
+  optimum: number[];
+  energyAt: (parameters: number[]) => number;
+  kinetic: number;
+  curvature: number[][] | null;
+}
+
 /** Samples the data behind the scan and density plots; the plots themselves are drawn by the render layer. */
 export function plotData(inputs: PlotInputs, wanted: ReadonlyArray<'scan' | 'density'>): PlotData {
+  const { scans, evaluations } = energyScans(inputs, wanted);
+  const density = wanted.includes('density') ? densityProfile(inputs) : null;
+  return { scans, density, evaluations: evaluations + (density ? DENSITY_SAMPLES : 0) };
+}
+
+/** E along each varied parameter through the optimum (when scans are wanted), and how many energies that took. */
+export function energyScans(inputs: ScanInputs, wanted: ReadonlyArray<'scan' | 'density'>): { scans: EnergyScan[]; evaluations: number } {
   let evaluations = 0;
   const energy = (p: number[]) => {
     evaluations++;
@@ -53,11 +74,10 @@ export function plotData(inputs: PlotInputs, wanted: ReadonlyArray<'scan' | 'den
     return Number.isFinite(e) ? e : null;
   };
   const scans = wanted.includes('scan') ? inputs.problem.parameters.map((_, i) => scanParameter(inputs, i, energy)) : [];
-  const density = wanted.includes('density') ? densityProfile(inputs) : null;
-  return { scans, density, evaluations: evaluations + (density ? DENSITY_SAMPLES : 0) };
+  return { scans, evaluations };
 }
 
-function scanParameter(inputs: PlotInputs, index: number, energy: (p: number[]) => number | null): EnergyScan {
+function scanParameter(inputs: ScanInputs, index: number, energy: (p: number[]) => number | null): EnergyScan {
   const spec = inputs.problem.parameters[index];
   const centre = inputs.optimum[index];
   const curvature = inputs.curvature?.[index]?.[index] ?? NaN;
@@ -95,5 +115,5 @@ function densityProfile(inputs: PlotInputs): DensityProfile {
     // Grid vectors are normalised with the lumped weights, so state[i]^2 is the density at node i (radial: of chi = r R).
     for (let i = 0; i < nodes.length; i++) if (nodes[i] >= lo && nodes[i] <= hi) grid.push({ x: nodes[i], density: state[i] * state[i] });
   }
-  return { coordinate: domain.coordinate, samples, grid };
+  return { coordinate: domain.coordinate, ...(domain.name === 'plane' ? { plane: true } : {}), samples, grid };
 }

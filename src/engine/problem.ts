@@ -115,7 +115,7 @@ export interface FieldTrial {
 }
 
 /** A trial problem on a space of several coordinates (axial, a Cartesian product). */
-export interface FieldProblem extends Pick<ProblemBase, 'parameters' | 'reference' | 'claim' | 'display' | 'localSearch'> {
+export interface FieldProblem extends Pick<ProblemBase, 'parameters' | 'reference' | 'claim' | 'plots' | 'display' | 'localSearch'> {
   space: FieldSpace;
   potential: PointFunction;
   potentialSwitches: AxisSwitch[];

@@ -1,3 +1,4 @@
+import type { FieldCut, FieldDensity } from '../engine/field-plot-data.ts';
 import { g, type ValueDisplay } from '../engine/format.ts';
 import type { QuantityMode, StatedUnit } from '../spec/types.ts';
 import type { BlockResult, Sensitivity } from './result-types.ts';
@@ -107,9 +108,11 @@ export function inBlockUnits(result: BlockResult, units: QuantityMode): BlockRes
       // Densities are per unit length, so they scale inversely with it.
       density: plots.density && {
         coordinate: plots.density.coordinate,
+        ...(plots.density.plane ? { plane: true } : {}),
         samples: plots.density.samples.map((x) => ({ x: x.x * L, trial: x.trial / L, potential: maybe(x.potential) })),
         grid: plots.density.grid.map((p) => ({ x: p.x * L, density: p.density / L })),
       },
+      field: plots.field && fieldInUnits(plots.field, L, maybe),
     },
     diagnostics: diagnostics && {
       ...diagnostics,
@@ -161,6 +164,22 @@ function sensitivityInUnits(s: Sensitivity, units: QuantityMode): Sensitivity {
     contribution: s.contribution === null ? null : s.contribution * E,
     reevaluated: s.reevaluated === null ? null : s.reevaluated * E,
     perUnit: input.unit ? `${units.energy.unit}/(${input.unit})` : units.energy.unit,
+  };
+}
+
+/** Every coordinate of a space of several coordinates is a length; the density is per length to the space's dimension. */
+function fieldInUnits(field: FieldDensity, L: number, energy: (v: number | null) => number | null): FieldDensity {
+  const perVolume = L ** field.dimension;
+  const cut = (c: FieldCut): FieldCut => ({
+    coordinate: c.coordinate,
+    samples: c.samples.map((s) => ({ x: s.x * L, trial: s.trial / perVolume, potential: energy(s.potential) })),
+    grid: c.grid.map((g) => ({ x: g.x * L, density: g.density / perVolume })),
+  });
+  return {
+    ...field,
+    through: field.through.map((x) => x * L),
+    picture: { x: field.picture.x.map((x) => x * L), y: field.picture.y.map((y) => y * L), density: field.picture.density.map((v) => v / perVolume) },
+    cuts: field.cuts.map(cut),
   };
 }
 

@@ -7,7 +7,7 @@ import { symbolTex } from '../expr/symbol-tex.ts';
 import { blockVerdict, numericFloor, type Verdict } from '../log/block-verdict.ts';
 import type { BlockInputs, BlockResult } from '../log/result-types.ts';
 import { escapeHtml, formatAt, formatNearOne, formatNumber, MINUS, texNumber, typesetMessage, typesetUnit } from './html.ts';
-import { renderPlots } from './plots.ts';
+import { renderBlockPlots } from './field-plots.ts';
 import { renderSystemLink, type SystemLink } from './review-html.ts';
 import { renderResponse, renderSweep } from './sweep-panel.ts';
 
@@ -61,7 +61,7 @@ export function renderBlockPanel(result: BlockResult, context: PanelContext): st
   if (result.energy) parts.push(renderResults(result, verdict));
   if (result.sweep) parts.push(renderSweep(result));
   if (result.sensitivities) parts.push(renderResponse(result));
-  const plots = renderPlots(result, {
+  const plots = renderBlockPlots(result, {
     energy: result.energy?.unit ?? 'hartree',
     length: result.inputs?.lengthUnit ?? 'bohr',
     parameters: Object.fromEntries(Object.entries(result.parameters).map(([name, p]) => [name, p.unit])),

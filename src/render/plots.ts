@@ -10,13 +10,13 @@ import { formatNumber, MINUS } from './html.ts';
 const { document } = parseHTML('<!doctype html><html><body></body></html>');
 
 // Drawn at about the width a phone gives a panel, so text keeps its size there; wider screens put two side by side.
-const WIDTH = 360;
+export const WIDTH = 360;
 const HEIGHT = 260;
 // Black and white print: marks differ by line style and symbol, never by colour alone.
 export const INK = '#111';
 const QUIET = '#555';
 /** Labels drawn over marks keep a white halo, so a curve running under them never makes them unreadable. */
-const HALO = { fill: INK, stroke: 'white', strokeWidth: 4, paintOrder: 'stroke' } as const;
+export const HALO = { fill: INK, stroke: 'white', strokeWidth: 4, paintOrder: 'stroke' } as const;
 // 13 px text stays at least 12 px when a phone narrows the plot to its panel.
 const STYLE = { fontSize: '13px', background: 'white', color: INK, overflow: 'visible' };
 
@@ -112,7 +112,11 @@ function scanPlot(scan: EnergyScan, result: BlockResult, units: PlotUnits, yDoma
   );
 }
 
-function densityPlot(profile: DensityProfile, result: BlockResult, units: PlotUnits): string {
+/** A density along one coordinate with the potential there: trial samples, grid nodes, V(q) (null where not finite). */
+export type DensityLine = Pick<DensityProfile, 'samples' | 'grid'> & { coordinate: string; plane?: boolean };
+
+/** The potential with the trial and grid densities drawn from the level E: one coordinate, or (with `encodings`) a cut through a space of several. */
+export function densityPlot(profile: DensityLine, result: BlockResult, units: PlotUnits, encodings?: string): string {
   const energy = result.energy!.value;
   const kinetic = Math.abs(result.components?.kinetic ?? 1) || 1;
   const reference = result.reference?.energy ?? null;
@@ -135,9 +139,9 @@ function densityPlot(profile: DensityProfile, result: BlockResult, units: PlotUn
       { x: 'x', y: 'potential', stroke: '#666', strokeWidth: 3, clip: true },
     ),
     Plot.ruleY([energy], { stroke: INK, strokeWidth: 0.8 }),
-    Plot.areaY(profile.samples, { x: 'x', y1: energy, y2: (s: DensityProfile['samples'][number]) => energy + lift * s.trial, fill: '#d9d9d9', clip: true }),
-    Plot.line(profile.samples, { x: 'x', y: (s: DensityProfile['samples'][number]) => energy + lift * s.trial, stroke: INK, strokeWidth: 1.4, clip: true }),
-    Plot.dot(profile.grid, { x: 'x', y: (g: DensityProfile['grid'][number]) => energy + lift * g.density, stroke: INK, fill: 'white', r: 2.5, symbol: 'circle', clip: true }),
+    Plot.areaY(profile.samples, { x: 'x', y1: energy, y2: (s: DensityLine['samples'][number]) => energy + lift * s.trial, fill: '#d9d9d9', clip: true }),
+    Plot.line(profile.samples, { x: 'x', y: (s: DensityLine['samples'][number]) => energy + lift * s.trial, stroke: INK, strokeWidth: 1.4, clip: true }),
+    Plot.dot(profile.grid, { x: 'x', y: (g: DensityLine['grid'][number]) => energy + lift * g.density, stroke: INK, fill: 'white', r: 2.5, symbol: 'circle', clip: true }),
     Plot.text([energy], { y: (d: number) => d, frameAnchor: 'left', text: () => `E = ${formatNumber(energy, 6)}`, dy: 9, dx: 4, textAnchor: 'start', ...HALO }),
   ];
   // Hard walls inside the window are drawn as thick rules: the trial must vanish there.
@@ -153,7 +157,8 @@ function densityPlot(profile: DensityProfile, result: BlockResult, units: PlotUn
       marks,
     },
     finding,
-    `Thick grey: potential V(${q})${bounded ? '' : `, cut off below ${formatNumber(low, 3)} ${units.energy}`}${walls.length ? '; thick black rules: hard walls' : ''}. Shaded with line: trial density${q === 'r' ? ' r²|R|²' : ' |ψ|²'}; open circles: grid density of the ${targetLevel(result)} at its nodes; both scaled and drawn from the level E. Dashed: reference energy of that level.`,
+    encodings ??
+      `Thick grey: potential V(${q})${bounded ? '' : `, cut off below ${formatNumber(low, 3)} ${units.energy}`}${walls.length ? '; thick black rules: hard walls' : ''}. Shaded with line: trial density${q === 'r' ? (profile.plane ? ' r|R|²' : ' r²|R|²') : ' |ψ|²'}; open circles: grid density of the ${targetLevel(result)} at its nodes; both scaled and drawn from the level E. Dashed: reference energy of that level.`,
   );
 }
 
@@ -188,8 +193,11 @@ function targetLevel(result: BlockResult): string {
  * A figure with its finding said twice: in the caption's first sentence and as the SVG's accessible name. Plot
  * names its mark groups with aria-label on bare g elements, which ARIA forbids; the name is kept on the svg alone.
  */
+/** The plot margins every figure uses (a picture sizes its height from them). */
+export const MARGIN = { left: 62, right: 14, top: 24, bottom: 42 };
+
 export function draw(options: Plot.PlotOptions, finding: string, encodings: string): string {
-  const figure = Plot.plot({ document, width: WIDTH, height: HEIGHT, marginLeft: 62, marginRight: 14, marginBottom: 42, marginTop: 24, style: STYLE, caption: `${finding} ${encodings}`, ...options }) as unknown as Element;
+  const figure = Plot.plot({ document, width: WIDTH, height: HEIGHT, marginLeft: MARGIN.left, marginRight: MARGIN.right, marginBottom: MARGIN.bottom, marginTop: MARGIN.top, style: STYLE, caption: `${finding} ${encodings}`, ...options }) as unknown as Element;
   for (const g of Array.from(figure.querySelectorAll('g[aria-label]'))) g.removeAttribute('aria-label');
   const svg = figure.querySelector('svg');
   if (svg) {
