@@ -1,18 +1,20 @@
 import * as Plot from '@observablehq/plot';
 import type { BlockResult, Sensitivity } from '../log/result-types.ts';
-import { escapeHtml, formatNumber } from './html.ts';
+import { escapeHtml, formatNumber, typesetUnit } from './html.ts';
 import { draw, INK } from './plots.ts';
 
 /** A panel's sweep part: the points as a table, E against the constant with the reference and the bracket, and the optimum. */
 export function renderSweep(result: BlockResult): string {
   const sweep = result.sweep!;
   const energyUnit = escapeHtml(result.energy?.unit ?? 'hartree');
-  const constant = `${escapeHtml(sweep.constant)}${sweep.unit ? ` (${escapeHtml(sweep.unit)})` : ''}`;
+  const constant = `${escapeHtml(sweep.constant)}${sweep.unit ? ` (${escapeHtml(typesetUnit(sweep.unit))})` : ''}`;
   const varied = Object.entries(sweep.points.find((p) => p.result.energy)?.result.parameters ?? {}).filter(([, p]) => p.varied);
   const head = ['mark', constant, 'status', `E (${energyUnit})`, 'reference', 'lower bound', ...varied.map(([name, p]) => `${escapeHtml(name)}${p.unit ? ` (${escapeHtml(p.unit)})` : ''}`)];
+  const mixed = new Set(sweep.points.map((p) => p.result.status)).size > 1;
   const rows = sweep.points.map(({ value, result: r }, i) =>
     [
-      i === sweep.worst && sweep.points.length > 1 ? 'worst' : '',
+      // Among points of one status the first stands for the block; marking it would suggest a fault that is not there.
+      i === sweep.worst && mixed ? 'worst' : '',
       formatNumber(value, 6),
       escapeHtml(r.status),
       formatNumber(r.energy?.value ?? null),
