@@ -21,6 +21,8 @@ import { createWorkerPool, type TaskOutcome } from './worker-pool.ts';
 const TASK_MODULE = toolModule('log/evaluate-task.ts');
 // The expression library the evaluator is built on; workers load it ahead of the TypeScript loader.
 const PRELOAD = ['mathjs'];
+/** Blocks to evaluate that justify one more worker (common practice: start-up cost against a share of the work). */
+const BLOCKS_PER_WORKER = 8;
 
 /** The Markdown files named, with folders searched recursively, in a stable order. */
 export function collectRecordFiles(paths: string[]): { files: string[]; missing: string[] } {
@@ -79,7 +81,7 @@ export interface CheckStats {
   overMemory: number;
   /** Results that could not be stored in the cache (read-only or full disk). */
   writeErrors: number;
-  /** The most workers the run may use (the configured number). */
+  /** The workers the run started: the configured number at most, fewer when few blocks need evaluating (0 when none). */
   workers: number;
   /** The block results of this run that were taken from the cache rather than evaluated (for the table's time column). */
   fromCache: ReadonlySet<BlockResult>;
@@ -125,11 +127,14 @@ export async function checkLog(files: Array<string | RecordSource>, options: Che
 
   let timedOut = 0;
   let overMemory = 0;
+  // Each worker loads the evaluator once (about a second); a few blocks are done sooner by one worker than by two
+  // loading at the same time, so another worker is started only for every BLOCKS_PER_WORKER blocks to evaluate.
+  const workers = Math.min(config.workers, Math.ceil(misses.length / BLOCKS_PER_WORKER));
   if (misses.length > 0) {
     const pool = createWorkerPool<BlockTask, BlockResult>({
       taskModule: TASK_MODULE,
       preload: PRELOAD,
-      workers: config.workers,
+      workers,
       timeLimitMs: config.timeLimitSeconds * 1000,
       memoryLimitMb: config.memoryLimitMb,
     });
@@ -160,7 +165,7 @@ export async function checkLog(files: Array<string | RecordSource>, options: Che
   const blocks = records.reduce((n, record) => n + record.blocks.length, 0);
   return {
     log: { tool: { name: 'groundwork', version: TOOL_VERSION }, records },
-    stats: { blocks, evaluated: blocks - cache.stats.hits, cached: cache.stats.hits, corrupt: cache.stats.corrupt, timedOut, overMemory, writeErrors: cache.stats.writeErrors, workers: config.workers, fromCache },
+    stats: { blocks, evaluated: blocks - cache.stats.hits, cached: cache.stats.hits, corrupt: cache.stats.corrupt, timedOut, overMemory, writeErrors: cache.stats.writeErrors, workers, fromCache },
   };
 }
 
