@@ -1,6 +1,6 @@
-import { templeBound, weinsteinInterval } from './bounds.ts';
+import { templeBound } from './bounds.ts';
 import { boundChecks, claimChecks, integralsCheck, optimiserChecks, referenceChecks } from './checks.ts';
-import { invalidResult, type EngineResult } from './evaluate-problem.ts';
+import { invalidResult, trialResult, type EngineResult } from './evaluate-problem.ts';
 import { fieldExpectation, fieldVariance, placeField, searchFieldExpectation, type FieldExpectation } from './field-expectation.ts';
 import { fieldGridReference, productOverlap } from './field-grid-reference.ts';
 import { fieldPlotData } from './field-plot-data.ts';
@@ -8,7 +8,7 @@ import { ATOMIC_DISPLAY, g } from './format.ts';
 import { minimizeBounded, type MinimizeResult } from './minimize.ts';
 import { GROUND_LEVEL } from './parity.ts';
 import type { FieldProblem } from './problem.ts';
-import { gradedCheck, statusOf, type GradedCheck } from './status.ts';
+import { gradedCheck, type GradedCheck } from './status.ts';
 import { COMPARISON_FLOOR, WALL_TOLERANCE } from './tolerances.ts';
 
 /**
@@ -25,12 +25,16 @@ export function evaluateFieldProblem(problem: FieldProblem): EngineResult {
     counts.energyEvaluations++;
     counts.trialEvaluations += result.evaluations;
   };
-  problem.trial.setParameters(start);
-  const startPlacement = placeField(problem);
-  counts.trialEvaluations += startPlacement.evaluations;
-  const atStart = fieldExpectation(problem, startPlacement);
-  counted(atStart);
-  const startChecks = trialChecks(problem, atStart, 'the start values');
+  // The trial placed, integrated and checked at one parameter point (the start values, then the optimum).
+  const settle = (parameters: number[], where: string) => {
+    problem.trial.setParameters(parameters);
+    const placement = placeField(problem);
+    counts.trialEvaluations += placement.evaluations;
+    const at = fieldExpectation(problem, placement);
+    counted(at);
+    return { placement, at, checks: trialChecks(problem, at, where) };
+  };
+  const { at: atStart, checks: startChecks } = settle(start, 'the start values');
   if (startChecks.some((c) => !c.pass)) return invalidResult(startChecks, counts, started);
 
   let optimiser: MinimizeResult | null = null;
@@ -44,12 +48,7 @@ export function evaluateFieldProblem(problem: FieldProblem): EngineResult {
     }, problem.parameters, { local: problem.localSearch });
     best = Array.from(optimiser.x);
   }
-  problem.trial.setParameters(best);
-  const placement = placeField(problem);
-  counts.trialEvaluations += placement.evaluations;
-  const optimum = fieldExpectation(problem, placement);
-  counted(optimum);
-  const optimumChecks = trialChecks(problem, optimum, 'the optimum');
+  const { placement, at: optimum, checks: optimumChecks } = settle(best, 'the optimum');
   if (optimumChecks.some((c) => !c.pass)) return invalidResult(optimumChecks, counts, started);
 
   const checks: GradedCheck[] = [...optimumChecks];
@@ -67,37 +66,34 @@ export function evaluateFieldProblem(problem: FieldProblem): EngineResult {
   if (grid && grid.converged) checks.push(...boundChecks(energy, lower, overlap, grid.levels[0], GROUND_LEVEL, nextLevel, tolerance + 10 * (grid.errorEstimate[0] ?? 0), show));
   if (problem.claim) checks.push(...claimChecks(problem, energy, best));
 
-  const { status, message } = statusOf(checks);
   const timings = { variationalMs: performance.now() - started - referenceMs, referenceMs };
   const scanAt = searchFieldExpectation(problem, optimum);
   const plots = fieldPlotData(
     { problem, optimum: best, energyAt: (p) => scanAt(p).energy, kinetic: optimum.kinetic, curvature: optimiser?.hessian ?? null, norm: optimum.norm, placement, grid: product },
     problem.plots,
   );
-  return {
-    status,
-    message,
-    energy,
-    energyError: optimum.errorEstimate,
-    parameters: problem.parameters.map((p, i) => ({ name: p.name, value: best[i] })),
-    components: { kinetic: optimum.kinetic, potential: optimum.potential, norm: optimum.norm },
+  const result = trialResult({
+    checks,
+    optimum,
+    parameters: problem.parameters,
+    best,
     variance,
     grid,
     gridError,
-    bounds: { upper: energy, lower, weinstein: weinsteinInterval(energy, variance.value), nextLevel },
+    lower,
+    nextLevel,
     overlap,
+    reference: grid?.levels[0] ?? null,
     virial: null,
     virialNote: null,
     optimiser,
-    checks,
-    counts: { ...counts, trialEvaluations: counts.trialEvaluations + variance.evaluations },
+    counts,
     timings,
     plots,
-    states: [{ energy, errorEstimate: optimum.errorEstimate, reference: grid?.levels[0] ?? null }],
-    basis: null,
     level: GROUND_LEVEL,
-    ...(bindingThreshold !== undefined ? { binding: bindingThreshold === null ? null : { threshold: bindingThreshold, below: energy < bindingThreshold } } : {}),
-  };
+  });
+  if (bindingThreshold === undefined) return result;
+  return { ...result, binding: bindingThreshold === null ? null : { threshold: bindingThreshold, below: energy < bindingThreshold } };
 }
 
 /** Square-integrable, finite energy integrals, and zero on every face that is a hard wall (sampled across the face). */

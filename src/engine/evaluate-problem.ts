@@ -126,7 +126,6 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
   }
   if (problem.claim) checks.push(...claimChecks(problem, energy, best));
 
-  const { status, message } = statusOf(checks);
   const timings = { variationalMs: performance.now() - started - referenceMs, referenceMs };
   const scanAt = searchExpectation(problem, domain, potentialBreaks, optimum);
   const plots = plotData(
@@ -145,27 +144,65 @@ export function evaluateProblem(problem: VariationalProblem): EngineResult {
     },
     problem.plots,
   );
+  return trialResult({
+    checks,
+    optimum,
+    parameters: problem.parameters,
+    best,
+    variance,
+    grid,
+    gridError,
+    lower,
+    nextLevel,
+    overlap,
+    reference,
+    ...virialReport(problem.potential, domain.walls, domain.lo === -Infinity, optimum.kinetic, optimum.potential, Boolean(problem.massProfile)),
+    optimiser,
+    counts,
+    timings,
+    plots,
+    level: target,
+  });
+}
+
+/** What a single-trial evaluation found at its optimum, in the space-agnostic terms of its result. */
+export interface TrialOutcome extends Pick<EngineResult, 'variance' | 'grid' | 'gridError' | 'overlap' | 'virial' | 'virialNote' | 'optimiser' | 'checks' | 'counts' | 'timings' | 'plots' | 'level'> {
+  optimum: Pick<Expectation, 'energy' | 'errorEstimate' | 'kinetic' | 'potential' | 'norm'>;
+  parameters: ReadonlyArray<{ name: string }>;
+  best: number[];
+  lower: number | null;
+  nextLevel: number | null;
+  /** The grid level the energy is compared with. */
+  reference: number | null;
+  variance: VarianceResult;
+}
+
+/** The result of a single-trial evaluation, the same for every space; the status comes from its checks. */
+export function trialResult(o: TrialOutcome): EngineResult {
+  const { status, message } = statusOf(o.checks);
+  const { energy, errorEstimate, kinetic, potential, norm } = o.optimum;
   return {
     status,
     message,
     energy,
-    energyError: optimum.errorEstimate,
-    parameters: problem.parameters.map((p, i) => ({ name: p.name, value: best[i] })),
-    components: { kinetic: optimum.kinetic, potential: optimum.potential, norm: optimum.norm },
-    variance,
-    grid,
-    gridError,
-    bounds: { upper: energy, lower, weinstein: weinsteinInterval(energy, variance.value), nextLevel },
-    overlap,
-    ...virialReport(problem.potential, domain.walls, domain.lo === -Infinity, optimum.kinetic, optimum.potential, Boolean(problem.massProfile)),
-    optimiser,
-    checks,
-    counts: { ...counts, trialEvaluations: counts.trialEvaluations + variance.evaluations },
-    timings,
-    plots,
-    states: [{ energy, errorEstimate: optimum.errorEstimate, reference }],
+    energyError: errorEstimate,
+    parameters: o.parameters.map((p, i) => ({ name: p.name, value: o.best[i] })),
+    components: { kinetic, potential, norm },
+    variance: o.variance,
+    grid: o.grid,
+    gridError: o.gridError,
+    bounds: { upper: energy, lower: o.lower, weinstein: weinsteinInterval(energy, o.variance.value), nextLevel: o.nextLevel },
+    overlap: o.overlap,
+    virial: o.virial,
+    virialNote: o.virialNote,
+    optimiser: o.optimiser,
+    checks: o.checks,
+    counts: { ...o.counts, trialEvaluations: o.counts.trialEvaluations + o.variance.evaluations },
+    timings: o.timings,
+    plots: o.plots,
+    states: [{ energy, errorEstimate, reference: o.reference }],
     basis: null,
-    level: target,
+    level: o.level,
   };
 }
 
